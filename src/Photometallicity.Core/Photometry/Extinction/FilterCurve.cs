@@ -52,9 +52,9 @@ public sealed class FilterCurve
             bool n1 = parts.Length >= 2 && double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out double t);
             if (!n0 && wl.Count == 0 && !headerSeen) { headerSeen = true; continue; }
             if (parts.Length != 2)
-                throw new InputException($"expected 2 values (wavelength in Angstrom, transmission), found {parts.Length}", path, lineNo);
+                throw new InputException($"expected 2 values (wavelength in Angstrom, transmission), found {parts.Length} (line {lineNo} of the file)", path, wl.Count + 1);
             if (!n0 || !n1)
-                throw new InputException($"'{line}' is not a pair of numbers (wavelength in Angstrom, transmission)", path, lineNo);
+                throw new InputException($"'{line}' is not a pair of numbers (wavelength in Angstrom, transmission) (line {lineNo} of the file)", path, wl.Count + 1);
             double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out w);
             double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out t);
             wl.Add(w);
@@ -75,17 +75,18 @@ public sealed class FilterCurve
     private static FilterCurve Validate(string name, double[] wl, double[] tr, string? file, List<long>? rows)
     {
         string label = file ?? $"filter curve '{name}'";
-        long Row(int i) => rows is null ? i + 1 : rows[i];
+        long Row(int i) => i + 1; // data rows, 1-based, comment and header lines excluded (InputException convention)
+        string Line(int i) => rows is null ? "" : $" (line {rows[i]} of the file)";
         if (wl.Length < MinPoints)
             throw new InputException($"a filter curve needs at least {MinPoints} points, found {wl.Length}", label);
         for (int i = 0; i < wl.Length; i++)
         {
             if (!double.IsFinite(wl[i]) || wl[i] <= 0)
-                throw new InputException($"wavelength {wl[i]} is not a positive finite number of Angstrom", label, Row(i), "wavelength");
+                throw new InputException($"wavelength {wl[i]} is not a positive finite number of Angstrom{Line(i)}", label, Row(i), "wavelength");
             if (!double.IsFinite(tr[i]) || tr[i] < 0)
-                throw new InputException($"transmission {tr[i]} is negative or not finite", label, Row(i), "transmission");
+                throw new InputException($"transmission {tr[i]} is negative or not finite{Line(i)}", label, Row(i), "transmission");
             if (i > 0 && !(wl[i] > wl[i - 1]))
-                throw new InputException($"wavelengths must increase strictly: {wl[i]} follows {wl[i - 1]}", label, Row(i), "wavelength");
+                throw new InputException($"wavelengths must increase strictly: {wl[i]} follows {wl[i - 1]}{Line(i)}", label, Row(i), "wavelength");
         }
         if (tr.All(t => t == 0))
             throw new InputException("the transmission is zero everywhere", label);
