@@ -129,7 +129,9 @@ public static class ConfigLoader
             n.Required("err").AsString(),
             ext,
             n.Optional("zero_point")?.AsNumber(-5, 5) ?? 0.0,   // mag added to the catalogue magnitude; default 0
-            n.Optional("max_error")?.AsNumber(0.001, 10) ?? 0.3); // mag; larger errors flag the star; default 0.3 (common practice)
+            n.Optional("max_error")?.AsNumber(0.001, 10) ?? 0.3, // mag; larger errors flag the star; default 0.3 (common practice)
+            "");
+        b = b with { Filter = n.Optional("filter")?.AsString() ?? b.MagColumn }; // filter name; default: the magnitude column's name
         n.RejectUnknown();
         return b;
     }

@@ -41,8 +41,9 @@ public sealed record ExtinctionSpec(double? Value, string? CurvePath, string Law
         : $"{System.IO.Path.GetFileName(CurvePath)} ({Law}, R_V = {Rv})";
 }
 
+/// <summary>One band: where its columns are, its filter's name (recorded in the calibration), extinction, zero point, error cut.</summary>
 public sealed record BandConfig(string Name, CatalogueSide From, string MagColumn, string ErrColumn, ExtinctionSpec Extinction,
-    double ZeroPoint, double MaxError);
+    double ZeroPoint, double MaxError, string Filter);
 
 public sealed record ReddeningConfig(string? Column, double? Value, string? ErrorColumn, double? Error);
 

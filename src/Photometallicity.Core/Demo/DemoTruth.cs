@@ -26,8 +26,11 @@ public sealed record DemoTruth
     public double RedDepth5 { get; init; } = 24.4;
     public double NarrowDepth5 { get; init; } = 23.2;
     public double ErrorFloor { get; init; } = 0.008;
-    /// <summary>Extinction coefficients A/E(B-V) used to redden the invented stars (blue, red, narrow).</summary>
-    public double[] ExtinctionCoefficients { get; init; } = [3.55, 1.95, 4.35];
+    /// <summary>
+    /// Extinction coefficients A/E(B-V) used to redden the invented stars (blue, red, narrow): those of the invented
+    /// filter curves under Fitzpatrick (1999) with R_V = 3.1, as the demo config asks the pipeline to compute them.
+    /// </summary>
+    public double[] ExtinctionCoefficients { get; init; } = DemoFilters.ExtinctionCoefficients();
     public double IntrinsicIndexScatter { get; init; } = 0.02; // mag, invented
     public double DwarfIndexOffset { get; init; } = 0.12;      // mag: invented gravity effect of foreground dwarfs
 

@@ -11,6 +11,7 @@ public static class DemoWriter
     public static string Write(DemoField field, string directory, ulong seed)
     {
         Directory.CreateDirectory(directory);
+        DemoFilters.WriteTo(directory);
         CatalogueIO.Write(field.Broadband, Path.Combine(directory, "broad.csv"));
         CatalogueIO.Write(field.Narrowband, Path.Combine(directory, "narrow.csv"));
         CatalogueIO.Write(field.Standards, Path.Combine(directory, "standards.csv"));
@@ -35,10 +36,13 @@ public static class DemoWriter
           "broadband":  { "path": "broad.csv",  "id": "src", "ra": "ra", "dec": "dec", "missing": [99.999] },
           "narrowband": { "path": "narrow.csv", "id": "nid", "ra": "ra", "dec": "dec" },
           "bands": {
-            // extinction: A_band / E(B-V) for the invented filters
-            "blue":   { "from": "broadband",  "mag": "b480", "err": "b480_err", "extinction": {{F(t.ExtinctionCoefficients[0])}} },
-            "red":    { "from": "broadband",  "mag": "r770", "err": "r770_err", "extinction": {{F(t.ExtinctionCoefficients[1])}} },
-            "narrow": { "from": "narrowband", "mag": "n395", "err": "n395_err", "extinction": {{F(t.ExtinctionCoefficients[2])}} }
+            // extinction: A_band / E(B-V), a number or computed from the (invented) filter curve
+            "blue":   { "from": "broadband",  "mag": "b480", "err": "b480_err", "filter": "invented-b480",
+                        "extinction": { "curve": "filters/invented_blue_b480.csv", "law": "fitzpatrick99", "rv": 3.1 } },
+            "red":    { "from": "broadband",  "mag": "r770", "err": "r770_err", "filter": "invented-r770",
+                        "extinction": { "curve": "filters/invented_red_r770.csv", "law": "fitzpatrick99", "rv": 3.1 } },
+            "narrow": { "from": "narrowband", "mag": "n395", "err": "n395_err", "filter": "invented-n395",
+                        "extinction": { "curve": "filters/invented_narrow_n395.csv", "law": "fitzpatrick99", "rv": 3.1 } }
           },
           "reddening":   { "column": "ebv", "error": 0.005 },
           "crossmatch":  { "radius_arcsec": 1.0, "solve_offset": true },

@@ -10,6 +10,7 @@ public class ConfigLoaderTest
     private static string WriteConfig(TempDir dir, string text)
     {
         foreach (var f in new[] { "broad.csv", "narrow.csv", "standards.csv" }) File.WriteAllText(dir.File(f), "ra,dec\n1,2\n");
+        DemoFilters.WriteTo(dir.Path);
         string p = dir.File("config.json");
         File.WriteAllText(p, text);
         return p;
