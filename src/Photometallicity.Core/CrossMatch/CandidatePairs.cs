@@ -1,0 +1,67 @@
+namespace Photometallicity.CrossMatch;
+
+/// <summary>
+/// Every (left, right) pair within a radius, in compressed-row form: the candidates of left row i are
+/// <c>Right[Start[i] .. Start[i+1])</c> with their squared chords, in the order the tree found them.
+/// Built in parallel over fixed chunks of left rows and concatenated in chunk order (deterministic).
+/// </summary>
+public sealed class CandidatePairs
+{
+    private CandidatePairs(int[] start, int[] right, double[] chord2)
+    {
+        Start = start;
+        Right = right;
+        Chord2 = chord2;
+    }
+
+    public int[] Start { get; }
+    public int[] Right { get; }
+    public double[] Chord2 { get; }
+    public int LeftCount => Start.Length - 1;
+    public int PairCount => Right.Length;
+
+    public int CountOf(int left) => Start[left + 1] - Start[left];
+
+    /// <summary>All pairs with the query point of each left row given by its unit vector.</summary>
+    public static CandidatePairs Find(SkyKdTree tree, UnitVectors left, double maxChord2)
+    {
+        int n = left.Count;
+        int chunks = Chunks.Count(n);
+        var counts = new int[n];
+        var chunkRight = new int[chunks][];
+        var chunkChord = new double[chunks][];
+        Chunks.For(n, (c, lo, hi) =>
+        {
+            var idx = new List<int>(hi - lo);
+            var d2 = new List<double>(hi - lo);
+            for (int i = lo; i < hi; i++)
+            {
+                int before = idx.Count;
+                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], maxChord2, idx, d2);
+                counts[i] = idx.Count - before;
+            }
+            chunkRight[c] = idx.ToArray();
+            chunkChord[c] = d2.ToArray();
+        });
+        var start = new int[n + 1];
+        for (int i = 0; i < n; i++) start[i + 1] = start[i] + counts[i];
+        var right = new int[start[n]];
+        var chord = new double[start[n]];
+        int at = 0;
+        for (int c = 0; c < chunks; c++)
+        {
+            Array.Copy(chunkRight[c], 0, right, at, chunkRight[c].Length);
+            Array.Copy(chunkChord[c], 0, chord, at, chunkChord[c].Length);
+            at += chunkRight[c].Length;
+        }
+        return new CandidatePairs(start, right, chord);
+    }
+
+    /// <summary>For each right row, how many left rows have it as a candidate.</summary>
+    public int[] RightCounts(int rightCount)
+    {
+        var c = new int[rightCount];
+        foreach (int r in Right) c[r]++;
+        return c;
+    }
+}

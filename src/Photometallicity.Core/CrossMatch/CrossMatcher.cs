@@ -1,0 +1,183 @@
+using System.Diagnostics;
+using Microsoft.Extensions.Logging;
+using Photometallicity.Errors;
+using Photometallicity.Units;
+
+namespace Photometallicity.CrossMatch;
+
+/// <summary>
+/// The cross-match stage: pairs every left (broadband) source with at most one right (narrow-band) source.
+/// Steps: unit vectors and a tangent plane about the left field's centre; the astrometric offset (optionally
+/// rotation and scale) solved from secure pairs and applied to the right catalogue; the radius (given, or
+/// chosen from the separation distribution); one-to-one matching within it; the expected and measured
+/// false-match rates. Works on in-memory columns only; parallel parts use fixed chunks, so the result is the
+/// same for any number of threads.
+/// </summary>
+public static class CrossMatcher
+{
+    private const double RadToArcsec = 180.0 * 3600.0 / Math.PI;
+    // Offsets are solved in a tangent plane; beyond 45 deg from the centre it no longer describes one field (program's choice).
+    private const double MaxFieldRadiusDeg = 45.0;
+
+    public static CrossMatchResult Run(double[] leftRaDeg, double[] leftDecDeg, double[] rightRaDeg, double[] rightDecDeg,
+        CrossMatchOptions options, ILogger? logger = null)
+    {
+        options.Validate();
+        CheckPositions(leftRaDeg, leftDecDeg, "left");
+        CheckPositions(rightRaDeg, rightDecDeg, "right");
+        var clock = Stopwatch.StartNew();
+        int nLeft = leftRaDeg.Length, nRight = rightRaDeg.Length;
+        var left = UnitVectors.FromDegrees(leftRaDeg, leftDecDeg);
+        var rightRaw = UnitVectors.FromDegrees(rightRaDeg, rightDecDeg);
+        var plane = TangentPlane.AboutMean(left);
+
+        Angle radius = options.AutoRadius && options.Radius.Radians <= 0 ? Angle.FromArcseconds(1.0) : options.Radius;
+        string radiusReason = $"{radius.Arcseconds:0.###} arcsec as given";
+        var transform = AstrometricTransform.Identity;
+        OffsetSolver.Outcome? outcome = null;
+        string offsetReason;
+        int iterations = 0;
+        UnitVectors right = rightRaw;
+        SkyKdTree? rawTree = null;
+
+        bool canSolve = options.SolveOffset && plane is not null && plane.RadiusDeg <= MaxFieldRadiusDeg && nLeft > 0 && nRight > 0;
+        if (!options.SolveOffset) offsetReason = "offset not solved (switched off)";
+        else if (nLeft == 0 || nRight == 0) offsetReason = "offset not solved (a catalogue is empty)";
+        else if (!canSolve) offsetReason = $"offset not solved: the left catalogue spans more than {MaxFieldRadiusDeg} deg from its centre, too wide for one tangent plane";
+        else offsetReason = "";
+
+        if (canSolve)
+        {
+            rawTree = SkyKdTree.Build(rightRaw);
+            var (lXi, lEta) = plane!.ProjectAll(left);
+            var (rXi, rEta) = plane.ProjectAll(rightRaw);
+            var solver = new OffsetSolver(plane, rawTree, left, lXi, lEta, rXi, rEta);
+            double search = (options.OffsetSearchRadius ?? Angle.FromArcseconds(Math.Max(3.0 * radius.Arcseconds, 3.0))).Radians;
+            var start = solver.InitialEstimate(search);
+            logger?.LogDebug("crossmatch: first offset estimate {Est} from the pair-offset histogram within {Search:0.##} arcsec",
+                start is { } s0 ? $"{s0.DXi * RadToArcsec:+0.000;-0.000}, {s0.DEta * RadToArcsec:+0.000;-0.000} arcsec" : "none (no peak)", search * RadToArcsec);
+            double fieldRad = plane.RadiusDeg * Math.PI / 180.0;
+            outcome = solver.Iterate(start ?? AstrometricTransform.Identity, radius.Radians, options.MaxIterations,
+                options.SolveRotationScale, options.ConvergenceTolerance.Radians, options.MinSecurePairs, fieldRad);
+            iterations = outcome.Iterations;
+            if (options.AutoRadius && outcome.Fit is not null)
+            {
+                var choice = ChooseRadius(rawTree, solver.MapLeft(outcome.Transform), radius);
+                radius = choice.Radius;
+                radiusReason = choice.Reason;
+                outcome = solver.Iterate(outcome.Transform, radius.Radians, options.MaxIterations,
+                    options.SolveRotationScale, options.ConvergenceTolerance.Radians, options.MinSecurePairs, fieldRad);
+                iterations += outcome.Iterations;
+            }
+            if (outcome.Fit is null)
+            {
+                offsetReason = $"offset not solved: {outcome.SecurePairs} secure pairs within {radius.Arcseconds:0.###} arcsec, fewer than the {options.MinSecurePairs} needed";
+                outcome = null;
+            }
+            else
+            {
+                transform = outcome.Transform;
+                right = solver.CorrectRight(transform, rightRaw);
+            }
+        }
+
+        var tree = ReferenceEquals(right, rightRaw) && rawTree is not null ? rawTree : SkyKdTree.Build(right);
+        if (options.AutoRadius && outcome is null)
+        {
+            var choice = ChooseRadius(tree, left, radius);
+            radius = choice.Radius;
+            radiusReason = choice.Reason + " (no offset correction was applied)";
+        }
+
+        double chord = SkySeparation.Chord(radius);
+        var pairs = CandidatePairs.Find(tree, left, chord * chord);
+        var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
+        var sep = new double[nLeft];
+        var blend = new bool[nLeft];
+        int matched = 0, blends = 0, lost = 0;
+        for (int i = 0; i < nLeft; i++)
+        {
+            int r = rightIndex[i];
+            blend[i] = pairs.CountOf(i) >= 2;
+            if (r < 0)
+            {
+                sep[i] = double.NaN;
+                if (pairs.CountOf(i) > 0) lost++;
+                continue;
+            }
+            var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
+            sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
+            matched++;
+            if (blend[i]) blends++;
+        }
+        double expected = FalseMatchRate.Expected(tree, left, radius);
+        var measured = FalseMatchRate.Measured(tree, left, radius);
+
+        var fit = outcome?.Fit;
+        bool solved = fit is not null;
+        var offset = solved ? (transform.DXi * RadToArcsec, transform.DEta * RadToArcsec) : (0.0, 0.0);
+        var offErr = solved ? (fit!.ErrorXiRad * RadToArcsec, fit.ErrorEtaRad * RadToArcsec) : (double.NaN, double.NaN);
+        var scatter = solved ? (fit!.ScatterXiRad * RadToArcsec, fit.ScatterEtaRad * RadToArcsec) : (double.NaN, double.NaN);
+        bool rotScale = solved && options.SolveRotationScale && (transform.A != 1.0 || transform.B != 0.0);
+        if (solved)
+        {
+            offsetReason = $"offset {offset.Item1:+0.000;-0.000} +/- {offErr.Item1:0.000}, {offset.Item2:+0.000;-0.000} +/- {offErr.Item2:0.000} arcsec "
+                           + $"from {fit!.Used} secure pairs ({fit.Clipped} clipped) after {iterations} iterations"
+                           + (outcome!.Converged ? "" : " (not converged)")
+                           + (rotScale ? $"; rotation {transform.RotationRadians * RadToArcsec:+0.000;-0.000} arcsec, scale {transform.Scale:0.0000000}" : "");
+        }
+        var result = new CrossMatchResult
+        {
+            RightIndex = rightIndex,
+            SeparationArcsec = sep,
+            Blend = blend,
+            LeftCount = nLeft,
+            RightCount = nRight,
+            Matched = matched,
+            BlendCount = blends,
+            LostContention = lost,
+            RadiusUsed = radius,
+            RadiusReason = radiusReason,
+            FieldCentre = plane is null ? null : SkyPosition.FromDegrees(plane.CentreRaDeg, plane.CentreDecDeg),
+            OffsetSolved = solved,
+            OffsetReason = offsetReason,
+            Offset = offset,
+            OffsetError = offErr,
+            OffsetScatter = scatter,
+            SecurePairs = outcome?.SecurePairs ?? 0,
+            SecurePairsUsed = fit?.Used ?? 0,
+            RotationArcsec = rotScale ? transform.RotationRadians * RadToArcsec : null,
+            Scale = rotScale ? transform.Scale : null,
+            ExpectedFalseMatchRate = expected,
+            MeasuredFalseMatchRate = measured.Rate,
+            MeasuredFalseMatchRateError = measured.Error,
+            Iterations = iterations,
+            Converged = outcome?.Converged ?? !options.SolveOffset,
+        };
+        logger?.LogInformation("crossmatch: {Reason}", offsetReason);
+        logger?.LogInformation("crossmatch: radius {Reason}", radiusReason);
+        logger?.LogInformation("crossmatch: matched {Matched} of {Left} left sources ({Blends} possible blends, {Lost} lost to closer pairs); false-match rate expected {Exp:0.0000}, measured {Meas:0.0000} +/- {Err:0.0000} ({Ms} ms)",
+            matched, nLeft, blends, lost, expected, measured.Rate, measured.Error, clock.ElapsedMilliseconds);
+        return result;
+    }
+
+    private static AutoRadiusChoice ChooseRadius(SkyKdTree tree, UnitVectors queries, Angle guess)
+    {
+        double max = Math.Max(4.0 * guess.Arcseconds, 4.0);
+        var counts = PairHistograms.Separations(tree, queries, max, AutoRadius.Bins);
+        return AutoRadius.Choose(counts, max / AutoRadius.Bins, guess);
+    }
+
+    private static void CheckPositions(double[] ra, double[] dec, string side)
+    {
+        if (ra.Length != dec.Length)
+            throw new ArgumentException($"{side} catalogue: RA has {ra.Length} values but Dec has {dec.Length}.");
+        for (int i = 0; i < ra.Length; i++)
+        {
+            if (!double.IsFinite(ra[i]))
+                throw new InputException($"{side} catalogue: RA is {ra[i]}; every position must be finite", row: i + 1, column: "RA");
+            if (!(dec[i] >= -90.0 && dec[i] <= 90.0))
+                throw new InputException($"{side} catalogue: Dec = {dec[i]} deg is outside [-90, 90]", row: i + 1, column: "Dec");
+        }
+    }
+}

@@ -1,0 +1,168 @@
+namespace Photometallicity.CrossMatch;
+
+/// <summary>
+/// Solves the astrometric transform between the catalogues. The right tree holds the right catalogue as
+/// observed; each iteration maps the left positions into the right frame with the current transform
+/// (which is equivalent to correcting the right catalogue), matches within the radius, refits on the
+/// secure pairs (one candidate each way) with clipping, and stops when the solution moves by less than
+/// the tolerance anywhere in the field.
+/// The first estimate is the mode of the offsets of all pairs within a wider search radius (a 2-D histogram
+/// peak, background-subtracted centroid of the 3 x 3 bins around it), so an offset as large as the match
+/// radius itself is still found.
+/// </summary>
+internal sealed class OffsetSolver
+{
+    private const int HistogramHalf = 30;
+    private readonly TangentPlane _plane;
+    private readonly SkyKdTree _rightTree;
+    private readonly UnitVectors _left;
+    private readonly double[] _lXi, _lEta, _rXi, _rEta;
+    private readonly int _rightCount;
+
+    public OffsetSolver(TangentPlane plane, SkyKdTree rightTree, UnitVectors left, double[] lXi, double[] lEta, double[] rXi, double[] rEta)
+    {
+        _plane = plane;
+        _rightTree = rightTree;
+        _left = left;
+        _lXi = lXi;
+        _lEta = lEta;
+        _rXi = rXi;
+        _rEta = rEta;
+        _rightCount = rXi.Length;
+    }
+
+    public sealed record Outcome(AstrometricTransform Transform, AstrometricFitResult? Fit, int SecurePairs, int Iterations, bool Converged);
+
+    /// <summary>The offset at the peak of the pair-offset histogram, or null when no peak stands out.</summary>
+    public AstrometricTransform? InitialEstimate(double searchRadiusRad)
+    {
+        double bin = searchRadiusRad / HistogramHalf;
+        var h = PairHistograms.Offsets(_rightTree, _left, _lXi, _lEta, _rXi, _rEta, searchRadiusRad, bin, HistogramHalf);
+        int side = 2 * HistogramHalf + 1;
+        // Background: median count of the bins well inside the search circle.
+        var inside = new List<long>();
+        for (int y = 0; y < side; y++)
+            for (int x = 0; x < side; x++)
+            {
+                int dx = x - HistogramHalf, dy = y - HistogramHalf;
+                if (dx * dx + dy * dy <= (HistogramHalf - 2) * (HistogramHalf - 2)) inside.Add(h[y, x]);
+            }
+        inside.Sort();
+        double bg = inside.Count > 0 ? inside[inside.Count / 2] : 0;
+        long best = -1;
+        int bx = 0, by = 0;
+        for (int y = 1; y < side - 1; y++)
+            for (int x = 1; x < side - 1; x++)
+            {
+                long s = 0;
+                for (int j = -1; j <= 1; j++)
+                    for (int i = -1; i <= 1; i++) s += h[y + j, x + i];
+                if (s > best)
+                {
+                    best = s;
+                    bx = x;
+                    by = y;
+                }
+            }
+        // A peak must stand 5 sigma (Poisson) above nine bins of background (5 sigma: common practice).
+        if (best - 9 * bg <= 5 * Math.Sqrt(9 * bg + 1)) return null;
+        double sw = 0, sx = 0, sy = 0;
+        for (int j = -1; j <= 1; j++)
+            for (int i = -1; i <= 1; i++)
+            {
+                double w = Math.Max(0, h[by + j, bx + i] - bg);
+                sw += w;
+                sx += w * (bx + i - HistogramHalf);
+                sy += w * (by + j - HistogramHalf);
+            }
+        return new AstrometricTransform(1.0, 0.0, sx / sw * bin, sy / sw * bin);
+    }
+
+    /// <summary>Iterates solve - match from <paramref name="start"/> until converged or out of iterations.</summary>
+    public Outcome Iterate(AstrometricTransform start, double radiusRad, int maxIterations, bool rotationScale,
+        double toleranceRad, int minSecure, double fieldRadiusRad)
+    {
+        var t = start;
+        AstrometricFitResult? fit = null;
+        int secure = 0;
+        double chord = 2.0 * Math.Sin(0.5 * radiusRad);
+        for (int it = 1; it <= maxIterations; it++)
+        {
+            var mapped = MapLeft(t);
+            var pairs = CandidatePairs.Find(_rightTree, mapped, chord * chord);
+            var rightUse = pairs.RightCounts(_rightCount);
+            var rows = new List<int>();
+            var partner = new List<int>();
+            for (int i = 0; i < pairs.LeftCount; i++)
+            {
+                if (pairs.CountOf(i) != 1) continue;
+                int r = pairs.Right[pairs.Start[i]];
+                if (rightUse[r] != 1 || !double.IsFinite(_rXi[r])) continue;
+                rows.Add(i);
+                partner.Add(r);
+            }
+            secure = rows.Count;
+            if (secure < minSecure) return new Outcome(t, fit, secure, it, false);
+            var lx = new double[secure];
+            var ly = new double[secure];
+            var rx = new double[secure];
+            var ry = new double[secure];
+            for (int k = 0; k < secure; k++)
+            {
+                lx[k] = _lXi[rows[k]];
+                ly[k] = _lEta[rows[k]];
+                rx[k] = _rXi[partner[k]];
+                ry[k] = _rEta[partner[k]];
+            }
+            // Rotation and scale need pairs spread over the field; below 20 pairs only the offset is fitted (program's choice).
+            fit = AstrometricFit.Fit(lx, ly, rx, ry, rotationScale && secure >= 20);
+            double change = fit.Transform.DistanceTo(t, fieldRadiusRad);
+            t = fit.Transform;
+            if (change < toleranceRad) return new Outcome(t, fit, secure, it, true);
+        }
+        return new Outcome(t, fit, secure, maxIterations, false);
+    }
+
+    /// <summary>The left positions as the right catalogue would see them under transform t.</summary>
+    public UnitVectors MapLeft(AstrometricTransform t)
+    {
+        int n = _left.Count;
+        var x = new double[n];
+        var y = new double[n];
+        var z = new double[n];
+        Chunks.For(n, (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++)
+            {
+                var (xi, eta) = t.Forward(_lXi[i], _lEta[i]);
+                (x[i], y[i], z[i]) = _plane.Deproject(xi, eta);
+            }
+        });
+        return new UnitVectors(x, y, z);
+    }
+
+    /// <summary>The right catalogue corrected into the left frame (rows the plane cannot hold are left as observed).</summary>
+    public UnitVectors CorrectRight(AstrometricTransform t, UnitVectors rightRaw)
+    {
+        int n = _rightCount;
+        var x = new double[n];
+        var y = new double[n];
+        var z = new double[n];
+        Chunks.For(n, (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++)
+            {
+                if (!double.IsFinite(_rXi[i]))
+                {
+                    x[i] = rightRaw.X[i];
+                    y[i] = rightRaw.Y[i];
+                    z[i] = rightRaw.Z[i];
+                    continue;
+                }
+                var (xi, eta) = t.Inverse(_rXi[i], _rEta[i]);
+                (x[i], y[i], z[i]) = _plane.Deproject(xi, eta);
+            }
+        });
+        return new UnitVectors(x, y, z);
+    }
+}

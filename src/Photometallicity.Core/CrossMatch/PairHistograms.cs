@@ -1,0 +1,78 @@
+namespace Photometallicity.CrossMatch;
+
+/// <summary>
+/// Histograms over all (left, right) pairs within a radius, counted in parallel over fixed chunks of left rows
+/// into integer bins (integer sums, so the result does not depend on the order of chunks).
+/// </summary>
+internal static class PairHistograms
+{
+    private const double RadToArcsec = 180.0 * 3600.0 / Math.PI;
+
+    /// <summary>Counts of pair separations in <paramref name="bins"/> equal bins over [0, maxArcsec).</summary>
+    public static double[] Separations(SkyKdTree tree, UnitVectors queries, double maxArcsec, int bins)
+    {
+        double chord = 2.0 * Math.Sin(0.5 * maxArcsec / RadToArcsec);
+        double width = maxArcsec / bins;
+        var perChunk = new long[Chunks.Count(queries.Count)][];
+        Chunks.For(queries.Count, (c, lo, hi) =>
+        {
+            var h = new long[bins];
+            var idx = new List<int>();
+            var d2 = new List<double>();
+            for (int i = lo; i < hi; i++)
+            {
+                idx.Clear();
+                d2.Clear();
+                tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, idx, d2);
+                foreach (double v in d2)
+                {
+                    double s = SkySeparation.RadiansFromChord2(v) * RadToArcsec;
+                    if (s < maxArcsec) h[Math.Min(bins - 1, (int)(s / width))]++;
+                }
+            }
+            perChunk[c] = h;
+        });
+        var total = new double[bins];
+        foreach (var h in perChunk)
+            for (int b = 0; b < bins; b++) total[b] += h[b];
+        return total;
+    }
+
+    /// <summary>
+    /// 2-D histogram of the pair offsets (right minus left, tangent-plane radians) of all pairs within
+    /// <paramref name="radiusRad"/>, in (2 half + 1)^2 square bins of side <paramref name="binRad"/> centred on zero.
+    /// </summary>
+    public static long[,] Offsets(SkyKdTree tree, UnitVectors left, double[] lXi, double[] lEta, double[] rXi, double[] rEta,
+        double radiusRad, double binRad, int half)
+    {
+        double chord = 2.0 * Math.Sin(0.5 * radiusRad);
+        int side = 2 * half + 1;
+        var perChunk = new long[Chunks.Count(left.Count)][];
+        Chunks.For(left.Count, (c, lo, hi) =>
+        {
+            var h = new long[side * side];
+            var idx = new List<int>();
+            var d2 = new List<double>();
+            for (int i = lo; i < hi; i++)
+            {
+                idx.Clear();
+                d2.Clear();
+                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, idx, d2);
+                foreach (int r in idx)
+                {
+                    double dx = rXi[r] - lXi[i], dy = rEta[r] - lEta[i];
+                    if (!double.IsFinite(dx) || !double.IsFinite(dy)) continue;
+                    int bx = (int)Math.Round(dx / binRad) + half, by = (int)Math.Round(dy / binRad) + half;
+                    if (bx >= 0 && bx < side && by >= 0 && by < side) h[by * side + bx]++;
+                }
+            }
+            perChunk[c] = h;
+        });
+        var total = new long[side, side];
+        foreach (var h in perChunk)
+            for (int by = 0; by < side; by++)
+                for (int bx = 0; bx < side; bx++)
+                    total[by, bx] += h[by * side + bx];
+        return total;
+    }
+}

@@ -1,0 +1,55 @@
+namespace Photometallicity.CrossMatch;
+
+/// <summary>Columnar unit vectors (x, y, z) of sky positions, and the way back to (RA, Dec) in degrees.</summary>
+public sealed class UnitVectors
+{
+    private const double DegToRad = Math.PI / 180.0;
+    private const double RadToDeg = 180.0 / Math.PI;
+
+    public UnitVectors(double[] x, double[] y, double[] z)
+    {
+        if (y.Length != x.Length || z.Length != x.Length) throw new ArgumentException("Unit-vector arrays differ in length.");
+        X = x;
+        Y = y;
+        Z = z;
+    }
+
+    public double[] X { get; }
+    public double[] Y { get; }
+    public double[] Z { get; }
+    public int Count => X.Length;
+
+    /// <summary>Unit vectors of positions in degrees (computed in parallel over fixed chunks).</summary>
+    public static UnitVectors FromDegrees(ReadOnlySpan<double> raDeg, ReadOnlySpan<double> decDeg)
+    {
+        int n = raDeg.Length;
+        if (decDeg.Length != n) throw new ArgumentException($"RA has {n} values but Dec has {decDeg.Length}.");
+        var ra = raDeg.ToArray();
+        var dec = decDeg.ToArray();
+        var x = new double[n];
+        var y = new double[n];
+        var z = new double[n];
+        Chunks.For(n, (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++)
+            {
+                var (sd, cd) = Math.SinCos(dec[i] * DegToRad);
+                var (sa, ca) = Math.SinCos(ra[i] * DegToRad);
+                x[i] = cd * ca;
+                y[i] = cd * sa;
+                z[i] = sd;
+            }
+        });
+        return new UnitVectors(x, y, z);
+    }
+
+    /// <summary>(RA in [0, 360), Dec) in degrees of a vector (need not be normalised).</summary>
+    public static (double RaDeg, double DecDeg) ToDegrees(double x, double y, double z)
+    {
+        double ra = Math.Atan2(y, x) * RadToDeg;
+        if (ra < 0) ra += 360.0;
+        if (ra >= 360.0) ra -= 360.0;
+        double dec = Math.Atan2(z, Math.Sqrt(x * x + y * y)) * RadToDeg;
+        return (ra, dec);
+    }
+}
