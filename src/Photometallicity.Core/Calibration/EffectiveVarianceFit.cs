@@ -26,6 +26,7 @@ internal sealed class EffectiveVarianceFit
     private const double LnSigmaMin = -13.815510557964274; // ln 1e-6 mag
     private const double LnSigmaMax = 1.6094379124341003;  // ln 5 mag
     private const double LnSigmaTol = 1e-4;
+    private const double WarmBracket = 0.7;
 
     private readonly FitData _d;
     private readonly int _p;
@@ -100,7 +101,7 @@ internal sealed class EffectiveVarianceFit
             int distinct = 0;
             for (int i = 0; i < n; i++) if (_active[i]) distinct++;
             if (distinct < _p + 1) return $"{distinct} standards left for {_p} coefficients (at least {_p + 1} needed)";
-            string? err = FitActiveSet();
+            string? err = FitActiveSet(warm: iter > 1);
             if (err is not null) return err;
             double s2 = SigmaInt * SigmaInt;
             bool changed = false;
@@ -130,23 +131,43 @@ internal sealed class EffectiveVarianceFit
         return true;
     }
 
-    private string? FitActiveSet()
+    private string? FitActiveSet(bool warm)
     {
         int n = _d.N, p = _p;
-        for (int i = 0; i < n; i++) _gradF[i] = 0;
-        for (int i = 0; i < n; i++) if (_w[i] > 0) _baseVar[i] = _d.VarX[i]; // first pass: no gradient terms
+        if (!warm)
+        {
+            // First pass of a fit: no gradient terms yet. Later clipping passes start from the previous
+            // pass's gradients and sigma_int, which are already close.
+            for (int i = 0; i < n; i++) _gradF[i] = 0;
+            for (int i = 0; i < n; i++) if (_w[i] > 0) _baseVar[i] = _d.VarX[i];
+        }
         for (int g = 0; g < MaxGradientIterations; g++)
         {
-            double t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, LnSigmaMin, LnSigmaMax, LnSigmaTol);
+            double t;
+            if (warm || g > 0)
+            {
+                // Search near the previous ln sigma_int; fall back to the full bracket if the minimum is at its edge.
+                double t0 = Math.Log(Math.Max(SigmaInt, Math.Exp(LnSigmaMin)));
+                double lo = Math.Max(LnSigmaMin, t0 - WarmBracket), hi = Math.Min(LnSigmaMax, t0 + WarmBracket);
+                t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, lo, hi, LnSigmaTol);
+                if ((t - lo < 10 * LnSigmaTol && lo > LnSigmaMin) || (hi - t < 10 * LnSigmaTol && hi < LnSigmaMax))
+                    t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, LnSigmaMin, LnSigmaMax, LnSigmaTol);
+            }
+            else
+                t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, LnSigmaMin, LnSigmaMax, LnSigmaTol);
             SigmaInt = Math.Exp(t);
             if (!double.IsFinite(MinusTwoLnL(SigmaInt * SigmaInt))) return "the normal equations are singular (too few distinct colours or [Fe/H] values for this degree)";
             // New gradients and effective variances from the new coefficients.
-            double maxChange = 0;
+            // Convergence: largest coefficient change relative to the largest coefficient (the basis is scaled
+            // to [-1, 1], so coefficients are comparable).
+            double maxChange = 0, maxCoef = 1e-300;
             for (int k = 0; k < p; k++)
             {
-                maxChange = Math.Max(maxChange, Math.Abs(_coef[k] - _prev[k]) / (1e-8 + Math.Abs(_coef[k])));
+                maxChange = Math.Max(maxChange, Math.Abs(_coef[k] - _prev[k]));
+                maxCoef = Math.Max(maxCoef, Math.Abs(_coef[k]));
                 _prev[k] = _coef[k];
             }
+            maxChange /= maxCoef;
             for (int i = 0; i < n; i++)
             {
                 if (_w[i] <= 0) continue;
@@ -156,7 +177,7 @@ internal sealed class EffectiveVarianceFit
                 _gradF[i] = df;
                 _baseVar[i] = _d.VarX[i] + dc * dc * _d.VarC[i] - 2 * dc * _d.Cov[i] + df * df * _d.VarF[i];
             }
-            if (g > 0 && maxChange < 1e-7) break;
+            if ((g > 0 || warm) && maxChange < 1e-8) break;
         }
         // Residuals of every candidate at the final coefficients.
         for (int i = 0; i < n; i++)
