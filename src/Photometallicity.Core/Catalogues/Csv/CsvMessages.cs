@@ -11,12 +11,21 @@ internal static class CsvMessages
         $"header: column {column} repeats the name '{name}' of column {firstColumn}";
 
     public static string RaggedRow(int fields, int columns) =>
-        $"the row has {fields} fields but the header has {columns} columns";
+        $"the row has {fields} field{(fields == 1 ? "" : "s")} but the header has {columns} column{(columns == 1 ? "" : "s")}";
 
     public static string NotNumeric(string value) =>
         $"'{Shorten(value)}' is not a number, and this column must be numeric";
 
-    public static string Malformed(string detail) => $"malformed CSV: {detail}";
+    /// <summary>
+    /// CsvHelper's own reason, without its record number and byte offset (the row is named by the caller, and the
+    /// offset would count from after the comment lines, which the reader skips before CsvHelper sees the file).
+    /// </summary>
+    public static string Malformed(string csvHelperMessage)
+    {
+        string reason = System.Text.RegularExpressions.Regex.Replace(csvHelperMessage, @"^Malformed CSV in record \d+: ", "");
+        reason = System.Text.RegularExpressions.Regex.Replace(reason, @" \(byte offset \d+\)\.?$", "");
+        return $"malformed CSV: {reason}";
+    }
 
     public static string Unreadable(string detail) => $"cannot read the file: {detail}";
 

@@ -29,7 +29,10 @@ public static class CsvTableWriter
         using var writer = CsvWriter.Create(stream, Options, leaveOpen: true);
         var columns = table.Columns;
         if (columns.Count == 0) return;
-        writer.WriteHeader(columns.Select(c => c.Name).ToArray());
+        // A first name starting with '#' is quoted, or the reader would take the header for a comment line.
+        for (int c = 0; c < columns.Count; c++)
+            writer.WriteField(columns[c].Name, c == 0 && columns[c].Name.StartsWith('#') ? CsvQuoting.Always : CsvQuoting.WhenNeeded);
+        writer.EndRecord();
         var cells = columns.Select(CellWriter).ToArray();
         for (int row = 0; row < table.RowCount; row++)
         {
