@@ -41,23 +41,29 @@ public static class PhotometryPreparer
         double dCdE = -(r.Blue - r.Red);
         double dXdE = -(r.Narrow - r.Blue) + k * (r.Blue - r.Red);
         double lo = options.ColourMin ?? double.NegativeInfinity, hi = options.ColourMax ?? double.PositiveInfinity;
+        double[] bMag = inputs.BlueMag, bErr = inputs.BlueErr, rMag = inputs.RedMag, rErr = inputs.RedErr;
+        double[] nMag = inputs.NarrowMag, nErr = inputs.NarrowErr;
+        bool[] match = inputs.HasNarrowMatch;
+        bool[]? flagged = inputs.CatalogueFlagged;
+        StarValues ebvs = inputs.Ebv;
+        StarValues? ebvErrs = inputs.EbvErr;
 
         for (int i = 0; i < n; i++)
         {
             var st = PhotometryStatus.Ok;
-            double ebv = inputs.Ebv[i];
-            double sE = inputs.EbvErr?[i] ?? 0.0;
+            double ebv = ebvs[i];
+            double sE = ebvErrs is null ? 0.0 : ebvErrs[i];
             bool redden = double.IsFinite(ebv) && double.IsFinite(sE) && sE >= 0;
             if (!redden) st |= PhotometryStatus.ReddeningMissing;
 
-            double b = inputs.BlueMag[i], sb = inputs.BlueErr[i], rm = inputs.RedMag[i], sr = inputs.RedErr[i];
+            double b = bMag[i], sb = bErr[i], rm = rMag[i], sr = rErr[i];
             bool blueOk = Valid(b, sb), redOk = Valid(rm, sr);
             if (!blueOk || !redOk) st |= PhotometryStatus.BroadbandMissing;
             else if (sb > maxErr.Blue || sr > maxErr.Red) st |= PhotometryStatus.ErrorTooLarge;
 
-            double nm = inputs.NarrowMag[i], sn = inputs.NarrowErr[i];
+            double nm = nMag[i], sn = nErr[i];
             bool narrowOk = false;
-            if (!inputs.HasNarrowMatch[i]) st |= PhotometryStatus.NoNarrowMatch;
+            if (!match[i]) st |= PhotometryStatus.NoNarrowMatch;
             else if (!Valid(nm, sn)) st |= PhotometryStatus.NarrowMissing;
             else
             {
@@ -65,7 +71,7 @@ public static class PhotometryPreparer
                 if (sn > maxErr.Narrow) st |= PhotometryStatus.NarrowErrorTooLarge;
             }
 
-            if (inputs.CatalogueFlagged?[i] == true) st |= PhotometryStatus.CatalogueFlag;
+            if (flagged is not null && flagged[i]) st |= PhotometryStatus.CatalogueFlag;
 
             blue0[i] = redden && blueOk ? b + zp.Blue - r.Blue * ebv : double.NaN;
             red0[i] = redden && redOk ? rm + zp.Red - r.Red * ebv : double.NaN;

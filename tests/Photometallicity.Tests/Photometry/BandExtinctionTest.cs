@@ -64,4 +64,14 @@ public class BandExtinctionTest
         Assert.Throws<InputException>(() => BandExtinction.Compute(Boxcar(4000, 5000, 10), new CardelliClaytonMathis1989(), -1));
         Assert.Throws<InputException>(() => BandExtinction.Compute(Boxcar(4000, 5000, 10), new CardelliClaytonMathis1989(), 3.1, 10));
     }
+
+    [Fact]
+    public void FromFile_EqualsLoadAndCompute()
+    {
+        string path = RepoPaths.Calibration("filters", "invented_red_r770.csv");
+        var a = BandExtinction.FromFile(path, "odonnell94", 3.3, 4000);
+        var b = BandExtinction.Compute(FilterCurve.Load(path), new ODonnell1994(), 3.3, 4000);
+        Assert.Equal(b, a);
+        Assert.Throws<InputException>(() => BandExtinction.FromFile(path, "nope"));
+    }
 }

@@ -41,26 +41,18 @@ public class PhotometryPreparerTest
         const int n = 1_000_000;
         double k = 1.1, sb = 0.03, sr = 0.02, sn = 0.06, sE = 0.04;
         var rng = Seeds.For(12345, "photometry-covariance-test");
-        var inputs = new PhotometryInputs
-        {
-            BlueMag = new double[n], BlueErr = new double[n], RedMag = new double[n], RedErr = new double[n],
-            NarrowMag = new double[n], NarrowErr = new double[n], HasNarrowMatch = new bool[n],
-            Ebv = StarValues.PerStar(new double[n]), EbvErr = StarValues.Constant(sE),
-        };
-        var ebv = new double[n];
+        double[] b = new double[n], r = new double[n], nb = new double[n], ebv = new double[n];
         for (int i = 0; i < n; i++)
         {
-            inputs.BlueMag[i] = 21.0 + sb * rng.NextGaussian();
-            inputs.RedMag[i] = 19.8 + sr * rng.NextGaussian();
-            inputs.NarrowMag[i] = 22.6 + sn * rng.NextGaussian();
+            b[i] = 21.0 + sb * rng.NextGaussian();
+            r[i] = 19.8 + sr * rng.NextGaussian();
+            nb[i] = 22.6 + sn * rng.NextGaussian();
             ebv[i] = 0.08 + sE * rng.NextGaussian();
-            inputs.BlueErr[i] = sb; inputs.RedErr[i] = sr; inputs.NarrowErr[i] = sn; inputs.HasNarrowMatch[i] = true;
         }
-        inputs = new PhotometryInputs
+        var inputs = new PhotometryInputs
         {
-            BlueMag = inputs.BlueMag, BlueErr = inputs.BlueErr, RedMag = inputs.RedMag, RedErr = inputs.RedErr,
-            NarrowMag = inputs.NarrowMag, NarrowErr = inputs.NarrowErr, HasNarrowMatch = inputs.HasNarrowMatch,
-            Ebv = StarValues.PerStar(ebv), EbvErr = StarValues.Constant(sE),
+            BlueMag = b, BlueErr = Filled(n, sb), RedMag = r, RedErr = Filled(n, sr), NarrowMag = nb, NarrowErr = Filled(n, sn),
+            HasNarrowMatch = Enumerable.Repeat(true, n).ToArray(), Ebv = StarValues.PerStar(ebv), EbvErr = StarValues.Constant(sE),
         };
         var p = PhotometryPreparer.Run(inputs, Options(k)).Photometry;
         double mc = 0, mx = 0;
@@ -81,6 +73,13 @@ public class PhotometryPreparerTest
         double dC = -(R.Blue - R.Red), dX = -(R.Narrow - R.Blue) + k * (R.Blue - R.Red);
         Assert.Equal(sb * sb + sr * sr + dC * dC * sE * sE, p.VarColour[0], 14);
         Assert.Equal(-(1 + k) * sb * sb - k * sr * sr + dX * dC * sE * sE, p.CovIndexColour[0], 14);
+    }
+
+    private static double[] Filled(int n, double v)
+    {
+        var a = new double[n];
+        Array.Fill(a, v);
+        return a;
     }
 
     [Fact]

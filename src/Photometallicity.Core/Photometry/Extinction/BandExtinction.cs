@@ -18,6 +18,13 @@ public static class BandExtinction
     /// <summary>Second radiation constant h c / k = 1.438776877e-2 m K (CODATA 2018), in Angstrom K.</summary>
     public const double SecondRadiationConstantAngstromK = 1.438776877e8;
 
+    /// <summary>
+    /// A config recipe in one call: loads the curve file, looks the law up by name, computes. InputException on a bad
+    /// file, an unknown law or a value out of range.
+    /// </summary>
+    public static BandExtinctionResult FromFile(string curvePath, string lawName = ExtinctionLaws.DefaultName, double rv = 3.1, double? teffK = null) =>
+        Compute(FilterCurve.Load(curvePath), ExtinctionLaws.FromName(lawName, curvePath), rv, teffK, curvePath);
+
     /// <summary>Band coefficients of <paramref name="curve"/> under <paramref name="law"/> with R_V = <paramref name="rv"/>.</summary>
     /// <param name="curve">The filter transmission curve.</param>
     /// <param name="law">The extinction law.</param>

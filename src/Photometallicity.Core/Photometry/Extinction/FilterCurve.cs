@@ -13,25 +13,29 @@ public sealed class FilterCurve
 {
     public const int MinPoints = 3;
 
+    private readonly double[] _wavelengths, _transmission;
+
     private FilterCurve(string name, double[] wavelengths, double[] transmission)
     {
         Name = name;
-        WavelengthAngstrom = wavelengths;
-        Transmission = transmission;
+        _wavelengths = wavelengths;
+        _transmission = transmission;
     }
 
     /// <summary>A label: the file name without extension, or the name given to <see cref="FromArrays"/>.</summary>
     public string Name { get; }
 
-    public IReadOnlyList<double> WavelengthAngstrom { get; }
+    /// <summary>The wavelength grid (Angstrom, strictly increasing).</summary>
+    public IReadOnlyList<double> WavelengthAngstrom => _wavelengths;
 
-    public IReadOnlyList<double> Transmission { get; }
+    /// <summary>The transmission at each grid point (dimensionless, not negative).</summary>
+    public IReadOnlyList<double> Transmission => _transmission;
 
-    public int Count => ((double[])WavelengthAngstrom).Length;
+    public int Count => _wavelengths.Length;
 
-    internal double[] Wavelengths => (double[])WavelengthAngstrom;
+    internal double[] Wavelengths => _wavelengths;
 
-    internal double[] Throughput => (double[])Transmission;
+    internal double[] Throughput => _transmission;
 
     /// <summary>Reads a curve file; InputException naming the file and row on any bad content.</summary>
     public static FilterCurve Load(string path)
@@ -42,21 +46,26 @@ public sealed class FilterCurve
         var lineNumbers = new List<long>();
         bool headerSeen = false;
         long lineNo = 0;
-        foreach (string raw in File.ReadLines(path))
+        IEnumerable<string> lines;
+        try { lines = File.ReadAllLines(path); }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
+        {
+            throw new InputException($"cannot read the filter curve: {e.Message}", path, inner: e);
+        }
+        foreach (string raw in lines)
         {
             lineNo++;
             string line = raw.Trim();
             if (line.Length == 0 || line[0] == '#') continue;
             string[] parts = line.Split([',', ';', ' ', '\t'], StringSplitOptions.RemoveEmptyEntries);
-            bool n0 = parts.Length >= 1 && double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out double w);
-            bool n1 = parts.Length >= 2 && double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out double t);
+            double w = double.NaN, t = double.NaN;
+            bool n0 = parts.Length >= 1 && double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out w);
+            bool n1 = parts.Length >= 2 && double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out t);
             if (!n0 && wl.Count == 0 && !headerSeen) { headerSeen = true; continue; }
             if (parts.Length != 2)
                 throw new InputException($"expected 2 values (wavelength in Angstrom, transmission), found {parts.Length} (line {lineNo} of the file)", path, wl.Count + 1);
             if (!n0 || !n1)
                 throw new InputException($"'{line}' is not a pair of numbers (wavelength in Angstrom, transmission) (line {lineNo} of the file)", path, wl.Count + 1);
-            double.TryParse(parts[0], NumberStyles.Float, CultureInfo.InvariantCulture, out w);
-            double.TryParse(parts[1], NumberStyles.Float, CultureInfo.InvariantCulture, out t);
             wl.Add(w);
             tr.Add(t);
             lineNumbers.Add(lineNo);
