@@ -58,14 +58,12 @@ public static class CmdPlot
         if (d.LocusColour is not null)
         {
             int[] ok = PointThinning.Finite(d.LocusColour.Length, d.LocusColour, d.LocusMagnitude);
-            var locus = plot.Add.ScatterLine(PointThinning.Take(d.LocusColour, ok), PointThinning.Take(d.LocusMagnitude!, ok), Palette.Vermillion);
-            locus.LineWidth = 3;
-            locus.LinePattern = LinePattern.Dashed;
-            locus.LegendText = d.LocusLabel;
+            double[] lx = PointThinning.Take(d.LocusColour, ok), ly = PointThinning.Take(d.LocusMagnitude!, ok);
+            plot.Add.Plottable(new PatternLine(lx, ly, Palette.Vermillion, 3, LinePattern.Dashed) { LegendText = d.LocusLabel });
             if (finite.Length == 0)
             {
-                (xMin, xMax) = FigureStyle.PaddedRange(locus.Data.GetScatterPoints().Select(p => p.X));
-                (yMin, yMax) = FigureStyle.PaddedRange(locus.Data.GetScatterPoints().Select(p => p.Y));
+                (xMin, xMax) = FigureStyle.PaddedRange(lx);
+                (yMin, yMax) = FigureStyle.PaddedRange(ly);
             }
         }
         plot.XLabel(d.ColourLabel);
