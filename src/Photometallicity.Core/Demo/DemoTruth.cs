@@ -24,7 +24,7 @@ public sealed record DemoTruth
     public double MeanEbv { get; init; } = 0.045;        // invented foreground reddening
     public double BlueDepth5 { get; init; } = 25.0;      // 5-sigma depths (mag), invented
     public double RedDepth5 { get; init; } = 24.4;
-    public double NarrowDepth5 { get; init; } = 23.2;
+    public double NarrowDepth5 { get; init; } = 24.0;
     public double ErrorFloor { get; init; } = 0.008;
     /// <summary>
     /// Extinction coefficients A/E(B-V) used to redden the invented stars (blue, red, narrow): those of the invented
@@ -42,7 +42,7 @@ public sealed record DemoTruth
     public static double GiantIndex(double colour0, double feh)
     {
         double s = 0.5 * Math.Log(1.0 + Math.Exp((feh + 2.8) / 0.5));
-        return -0.55 + 0.25 * (colour0 - 1.0) + (0.20 + 0.18 * (colour0 - 1.0)) * s;
+        return -0.70 + 0.25 * (colour0 - 1.0) + (0.34 + 0.22 * (colour0 - 1.0)) * s;
     }
 
     /// <summary>The invented red-giant branch: dereddened colour C0 against absolute blue magnitude and [Fe/H].</summary>

@@ -75,7 +75,6 @@ public static class PhotometryStep
             ColourMax = config.Index.ColourMax,
         };
         var result = PhotometryPreparer.Run(inputsArrays, options, log);
-        log.LogInformation("photometry: {Diagnostics}", result.Diagnostics);
 
         var models = new List<PhotometricErrorModel>();
         foreach (var band in new[] { config.Blue, config.Red, config.Narrow })
