@@ -55,6 +55,8 @@ def source_table():
     t.meta["OBJECT"] = "Invented Dwarf I"
     t.meta["NSTARS"] = n
     t.meta["EPOCH"] = 2000.0
+    t.meta["LONGNOTE"] = "An invented note that is far too long for one header card, so it needs the CONTINUE convention; it's quoted too."
+    t.meta["HIERARCH invented.pipeline.version"] = "0.1.0"
     return t
 
 
@@ -107,6 +109,8 @@ def main():
             hdr = hdul[1].header
             check(hdr.get("OBJECT") == "Invented Dwarf I" and hdr.get("NSTARS") == 1000 and hdr.get("EPOCH") == 2000.0,
                   "header keywords carried with their types (string, integer, float)")
+            check(hdr.get("LONGNOTE") == source_table().meta["LONGNOTE"], "long string keyword (CONTINUE convention) carried", repr(hdr.get("LONGNOTE")))
+            check(hdr.get("invented.pipeline.version") == "0.1.0", "HIERARCH keyword carried", repr(hdr.get("invented.pipeline.version")))
 
         # The reference is what astropy reads from its own file (for a masked table astropy 5.2 writes a TNULL on
         # every integer column, so its in-memory table and its file can differ).

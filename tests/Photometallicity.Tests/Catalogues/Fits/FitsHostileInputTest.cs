@@ -197,6 +197,16 @@ public class FitsHostileInputTest : IDisposable
     }
 
     [Fact]
+    public void Read_EndlessHeader_IsRejectedWithoutReadingEverything()
+    {
+        var cards = Enumerable.Repeat(FitsBytes.Raw("HISTORY filler"), FitsHduReaderMaxCards + 100).Prepend(FitsBytes.Card("SIMPLE", "T"));
+        var e = Fails(new FitsBytes().Header(cards, end: false));
+        Assert.Equal($"{Path}: the header of HDU 0 has more than {FitsHduReaderMaxCards} cards and no END card; the file is damaged or not FITS", e.Message);
+    }
+
+    private const int FitsHduReaderMaxCards = Photometallicity.Catalogues.Fits.FitsHduReader.MaxCards;
+
+    [Fact]
     public void Cli_Convert_HostileFitsExitsWith2()
     {
         File.WriteAllBytes(Path, new byte[5000]);
