@@ -22,6 +22,9 @@ internal sealed record FitsHdu(FitsHeader Header, long DataStart, long DataBytes
 /// </summary>
 internal static class FitsHduReader
 {
+    /// <summary>A header longer than this (8 MB of cards) without an END card is taken as a damaged file.</summary>
+    public const int MaxCards = 100_000;
+
     /// <summary>Reads the header starting at <paramref name="start"/>; null when the file ends exactly there.</summary>
     public static FitsHdu? ReadAt(Stream stream, long start, int hduIndex, string file)
     {
@@ -56,6 +59,7 @@ internal static class FitsHduReader
             }
             text.Append(chunk);
             cards += 36;
+            if (cards > MaxCards) throw new InputException(Format(FitsMessages.HeaderTooLong, hduIndex, MaxCards), file);
         }
     }
 

@@ -88,6 +88,20 @@ public class FitsScalingTest
     }
 
     [Fact]
+    public void Read_ZeroRepeatField_HasNoColumn()
+    {
+        // r = 0 is legal and means the field holds no data (FITS Standard 4.0, sect. 7.3.1).
+        using var dir = new TempDir();
+        string path = new FitsBytes().Header(FitsBytes.EmptyPrimary())
+            .Header(FitsBytes.TableHeader(4, 1, 2, FitsBytes.Card("TTYPE1", "'empty'"), FitsBytes.Card("TFORM1", "'0D'"),
+                FitsBytes.Card("TTYPE2", "'n'"), FitsBytes.Card("TFORM2", "'J'")))
+            .Data(FitsBytes.BigEndian(12)).WriteTo(dir.File("t.fits"));
+        var t = CatalogueIO.Read(path);
+        Assert.Equal(["n"], t.Columns.Select(c => c.Name));
+        Assert.Equal(12.0, t["n"].GetDouble(0));
+    }
+
+    [Fact]
     public void Read_LogicalAndStrings()
     {
         var t = ReadOne("1L", [], [(byte)'T', (byte)'F', 0], 1, 3);
