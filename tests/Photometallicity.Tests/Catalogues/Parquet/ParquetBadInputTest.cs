@@ -23,6 +23,35 @@ public class ParquetBadInputTest
         Assert.Equal(["fake.parquet"], dir.Files());
     }
 
+    [Theory]
+    [InlineData(0.5)]
+    [InlineData(0.98)]
+    public void Read_TruncatedFile_IsAnInputError(double keep)
+    {
+        using var dir = new TempDir();
+        string good = dir.File("good.parquet");
+        CatalogueIO.Write(Csv.CsvRoundTripTest.AllTypes(), good);
+        var bytes = File.ReadAllBytes(good);
+        string path = dir.File("cut.parquet");
+        File.WriteAllBytes(path, bytes[..(int)(bytes.Length * keep)]);
+        var e = Assert.Throws<InputException>(() => CatalogueIO.Read(path));
+        Assert.StartsWith($"{path}: not a readable Parquet file: ", e.Message);
+    }
+
+    [Fact]
+    public void Read_CorruptDataPage_IsAnInputError()
+    {
+        using var dir = new TempDir();
+        var t = new Table([new Column<double>("x", Enumerable.Range(0, 1000).Select(i => i * 0.5).ToArray())]);
+        string path = dir.File("bad.parquet");
+        CatalogueIO.Write(t, path);
+        var bytes = File.ReadAllBytes(path);
+        for (int i = 4; i < 200; i++) bytes[i] ^= 0x5A; // scramble the first page header and data, keep the footer
+        File.WriteAllBytes(path, bytes);
+        var e = Assert.Throws<InputException>(() => CatalogueIO.Read(path));
+        Assert.StartsWith($"{path}, column 'x': cannot read the column: ", e.Message);
+    }
+
     [Fact]
     public void Read_EmptyFile_IsEmpty()
     {
