@@ -14,13 +14,15 @@ internal static class PairHistograms
         double chord = 2.0 * Math.Sin(0.5 * maxArcsec / RadToArcsec);
         double width = maxArcsec / bins;
         var perChunk = new long[Chunks.Count(queries.Count)][];
+        var order = queries.Order;
         Chunks.For(queries.Count, (c, lo, hi) =>
         {
             var h = new long[bins];
             var idx = new List<int>();
             var d2 = new List<double>();
-            for (int i = lo; i < hi; i++)
+            for (int k = lo; k < hi; k++)
             {
+                int i = order[k];
                 idx.Clear();
                 d2.Clear();
                 tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, idx, d2);
@@ -48,13 +50,15 @@ internal static class PairHistograms
         double chord = 2.0 * Math.Sin(0.5 * radiusRad);
         int side = 2 * half + 1;
         var perChunk = new long[Chunks.Count(left.Count)][];
+        var order = left.Order;
         Chunks.For(left.Count, (c, lo, hi) =>
         {
             var h = new long[side * side];
             var idx = new List<int>();
             var d2 = new List<double>();
-            for (int i = lo; i < hi; i++)
+            for (int k = lo; k < hi; k++)
             {
+                int i = order[k];
                 idx.Clear();
                 d2.Clear();
                 tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, idx, d2);
