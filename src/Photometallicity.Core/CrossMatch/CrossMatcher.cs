@@ -32,7 +32,7 @@ public static class CrossMatcher
         var plane = TangentPlane.AboutMean(left);
 
         Angle radius = options.AutoRadius && options.Radius.Radians <= 0 ? Angle.FromArcseconds(1.0) : options.Radius;
-        string radiusReason = $"{radius.Arcseconds:0.###} arcsec as given";
+        string radiusReason = options.AutoRadius ? "" : "fixed by the caller, not chosen from the data";
         var transform = AstrometricTransform.Identity;
         OffsetSolver.Outcome? outcome = null;
         string offsetReason;
