@@ -51,4 +51,44 @@ public sealed record PolynomialBasis2D(int Degree, double ColourCentre, double C
             }
         return (du / ColourScale, dv / FehScale);
     }
+    /// <summary>
+    /// Writes the partial derivatives of each basis term with respect to C0 and to [Fe/H] at (colour, feh),
+    /// in the order of <see cref="Terms"/>; dot them with coefficients for the model's gradient.
+    /// </summary>
+    public void TermDerivatives(double colour, double feh, Span<double> dColour, Span<double> dFeh)
+    {
+        double u = (colour - ColourCentre) / ColourScale;
+        double v = (feh - FehCentre) / FehScale;
+        Span<double> up = stackalloc double[Degree + 1];
+        Span<double> vp = stackalloc double[Degree + 1];
+        up[0] = vp[0] = 1.0;
+        for (int p = 1; p <= Degree; p++) { up[p] = up[p - 1] * u; vp[p] = vp[p - 1] * v; }
+        double su = 1.0 / ColourScale, sv = 1.0 / FehScale;
+        int k = 0;
+        for (int d = 0; d <= Degree; d++)
+            for (int j = 0; j <= d; j++, k++)
+            {
+                int i = d - j;
+                dColour[k] = i > 0 ? i * up[i - 1] * vp[j] * su : 0.0;
+                dFeh[k] = j > 0 ? j * up[i] * vp[j - 1] * sv : 0.0;
+            }
+    }
+
+    /// <summary>Human-readable names of the terms in order ("1", "u", "v", "u^2", "u v", ...).</summary>
+    public string[] TermNames()
+    {
+        var names = new string[Count];
+        int k = 0;
+        static string Pow(string x, int e) => e == 0 ? "" : e == 1 ? x : $"{x}^{e}";
+        for (int d = 0; d <= Degree; d++)
+            for (int j = 0; j <= d; j++)
+            {
+                string a = Pow("u", d - j), b = Pow("v", j);
+                names[k++] = d == 0 ? "1" : string.Join(" ", new[] { a, b }.Where(x => x.Length > 0));
+            }
+        return names;
+    }
+
+    /// <summary>Number of coefficients of a full 2-D polynomial of total degree <paramref name="degree"/>.</summary>
+    public static int CountFor(int degree) => (degree + 1) * (degree + 2) / 2;
 }

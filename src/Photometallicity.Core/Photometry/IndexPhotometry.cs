@@ -24,4 +24,11 @@ public sealed class IndexPhotometry
 
     /// <summary>True when the star's index and colour can be used for [Fe/H].</summary>
     public bool IsUsable(int i) => Status[i] == PhotometryStatus.Ok;
+
+    /// <summary>The flags that concern only the narrow band (the colour is unaffected by them).</summary>
+    public const PhotometryStatus NarrowOnlyFlags =
+        PhotometryStatus.NoNarrowMatch | PhotometryStatus.NarrowMissing | PhotometryStatus.NarrowErrorTooLarge;
+
+    /// <summary>True when the star's dereddened colour and magnitudes can be used (e.g. for membership), whatever its narrow band.</summary>
+    public bool HasUsableColour(int i) => (Status[i] & ~NarrowOnlyFlags) == PhotometryStatus.Ok;
 }

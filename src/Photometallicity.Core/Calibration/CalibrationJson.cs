@@ -1,0 +1,156 @@
+using System.Globalization;
+using System.Text.Json;
+using Photometallicity.Catalogues;
+
+namespace Photometallicity.Calibration;
+
+/// <summary>
+/// calibration.json: the model (filters, basis, coefficients, covariance, intrinsic scatter, validity domain,
+/// bootstrap ensemble, provenance) and, when a fit result is given, its diagnostics under "fit" (ignored when
+/// read back). Keys are written in a fixed order and doubles in round-trip form ("R"), so the same model gives
+/// the same bytes; NaN and infinities are written as null. Read with <see cref="CalibrationJsonReader"/>.
+/// </summary>
+public static class CalibrationJson
+{
+    public const string FormatName = "photometallicity-calibration";
+    public const int FormatVersion = 1;
+
+    public static void Write(CalibrationModel model, CalibrationResult? result, string path) =>
+        AtomicFile.Write(path, s => Write(model, result, s));
+
+    public static void Write(CalibrationModel model, CalibrationResult? result, Stream stream)
+    {
+        using var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = true, Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping });
+        w.WriteStartObject();
+        w.WriteString("format", FormatName);
+        w.WriteNumber("format_version", FormatVersion);
+
+        var f = model.Filters;
+        w.WriteStartObject("filters");
+        w.WriteString("system", f.System);
+        w.WriteString("blue_band", f.BlueBand);
+        w.WriteString("red_band", f.RedBand);
+        w.WriteString("narrow_band", f.NarrowBand);
+        Num(w, "colour_coefficient", f.ColourCoefficient);
+        Num(w, "blue_extinction", f.BlueExtinction);
+        Num(w, "red_extinction", f.RedExtinction);
+        Num(w, "narrow_extinction", f.NarrowExtinction);
+        w.WriteEndObject();
+
+        var b = model.Basis;
+        w.WriteStartObject("model");
+        w.WriteString("form", "index0 = sum_k coefficients[k] * u^i v^j, u = (colour0 - colour_centre) / colour_scale, v = ([Fe/H] - feh_centre) / feh_scale");
+        w.WriteNumber("degree", b.Degree);
+        Num(w, "colour_centre", b.ColourCentre);
+        Num(w, "colour_scale", b.ColourScale);
+        Num(w, "feh_centre", b.FehCentre);
+        Num(w, "feh_scale", b.FehScale);
+        w.WriteStartArray("terms");
+        foreach (var t in b.TermNames()) w.WriteStringValue(t);
+        w.WriteEndArray();
+        Arr(w, "coefficients", model.Coefficients);
+        Arr(w, "coefficient_covariance", model.CoefficientCovariance);
+        Num(w, "sigma_int_mag", model.SigmaInt);
+        w.WriteEndObject();
+
+        w.WriteStartObject("domain");
+        w.WriteStartArray("hull");
+        foreach (var (c, fe) in model.Domain.Hull) { w.WriteStartArray(); Val(w, c); Val(w, fe); w.WriteEndArray(); }
+        w.WriteEndArray();
+        w.WriteStartArray("excluded_colours");
+        foreach (var (lo, hi) in model.Domain.ExcludedColours) { w.WriteStartArray(); Val(w, lo); Val(w, hi); w.WriteEndArray(); }
+        w.WriteEndArray();
+        w.WriteEndObject();
+
+        w.WriteStartObject("quality");
+        Num(w, "rms_index_mag", model.RmsIndex);
+        Num(w, "rms_dex", model.RmsDex);
+        w.WriteNumber("standards_used", model.StandardsUsed);
+        w.WriteNumber("standards_rejected", model.StandardsRejected);
+        w.WriteEndObject();
+
+        w.WriteStartObject("ensemble");
+        w.WriteNumber("size", model.EnsembleCoefficients.Length);
+        w.WriteStartArray("coefficients");
+        foreach (var e in model.EnsembleCoefficients) { w.WriteStartArray(); foreach (var v in e) Val(w, v); w.WriteEndArray(); }
+        w.WriteEndArray();
+        Arr(w, "sigma_int_mag", model.EnsembleSigmaInt);
+        w.WriteEndObject();
+
+        w.WriteStartObject("provenance");
+        foreach (var kv in model.Provenance.OrderBy(kv => kv.Key, StringComparer.Ordinal)) w.WriteString(kv.Key, kv.Value);
+        w.WriteEndObject();
+
+        if (result is not null) WriteFit(w, result);
+        w.WriteEndObject();
+        w.Flush();
+    }
+
+    private static void WriteFit(Utf8JsonWriter w, CalibrationResult r)
+    {
+        w.WriteStartObject("fit");
+        w.WriteNumber("degree", r.Degree);
+        w.WriteString("degree_reason", r.DegreeReason);
+        Arr(w, "cv_score_by_degree_mag2", r.CvScoreByDegree);
+        Arr(w, "cv_score_error_by_degree_mag2", r.CvScoreErrorByDegree);
+        w.WriteStartObject("ineligible_degrees");
+        foreach (var kv in r.IneligibleDegrees.OrderBy(kv => kv.Key)) w.WriteString(kv.Key.ToString(CultureInfo.InvariantCulture), kv.Value);
+        w.WriteEndObject();
+        Num(w, "cv_rms_index_mag", r.CvRmsIndex);
+        Num(w, "cv_rms_dex", r.CvRmsDex);
+        w.WriteNumber("feh_slope_sign", r.FehSlopeSign);
+        w.WriteStartArray("monotonicity_notes");
+        foreach (var s in r.MonotonicityNotes) w.WriteStringValue(s);
+        w.WriteEndArray();
+        w.WriteNumber("bootstrap_redrawn", r.BootstrapRedrawn);
+        Arr(w, "bootstrap_standard_errors", r.BootstrapStandardErrors);
+        w.WriteStartArray("standards");
+        foreach (var v in r.PerStandard)
+        {
+            w.WriteStartObject();
+            w.WriteString("id", v.Id);
+            w.WriteString("status", StatusCode(v.Status));
+            w.WriteString("reason", v.Reason);
+            Num(w, "residual_index_mag", v.ResidualIndex);
+            Num(w, "residual_sigma", v.ResidualSigma);
+            Num(w, "residual_dex", v.ResidualDex);
+            Num(w, "cv_residual_index_mag", v.CvResidualIndex);
+            Num(w, "cv_residual_dex", v.CvResidualDex);
+            w.WriteEndObject();
+        }
+        w.WriteEndArray();
+        w.WriteEndObject();
+    }
+
+    /// <summary>Status codes as written: accepted, outlier, unusable, logg.</summary>
+    public static string StatusCode(StandardStatus s) => s switch
+    {
+        StandardStatus.Accepted => "accepted",
+        StandardStatus.RejectedOutlier => "outlier",
+        StandardStatus.Unusable => "unusable",
+        StandardStatus.RejectedLogG => "logg",
+        _ => throw new ArgumentOutOfRangeException(nameof(s)),
+    };
+
+    /// <summary>Reads a calibration file (see <see cref="CalibrationJsonReader.Read"/>).</summary>
+    public static CalibrationModel Read(string path) => CalibrationJsonReader.Read(path);
+
+    private static void Num(Utf8JsonWriter w, string key, double v)
+    {
+        w.WritePropertyName(key);
+        Val(w, v);
+    }
+
+    private static void Val(Utf8JsonWriter w, double v)
+    {
+        if (double.IsFinite(v)) w.WriteRawValue(v.ToString("R", CultureInfo.InvariantCulture), skipInputValidation: true);
+        else w.WriteNullValue();
+    }
+
+    private static void Arr(Utf8JsonWriter w, string key, IEnumerable<double> values)
+    {
+        w.WriteStartArray(key);
+        foreach (var v in values) Val(w, v);
+        w.WriteEndArray();
+    }
+}

@@ -1,0 +1,238 @@
+namespace Photometallicity.Calibration;
+
+/// <summary>
+/// Maximum-likelihood fit of X0 = f(C0, [Fe/H]) = sum_k c_k T_k(C0, [Fe/H]) to standards with errors in every
+/// variable and an intrinsic scatter, with iterative outlier clipping. One instance is a reusable workspace
+/// (allocation-free refits, for the bootstrap); not thread-safe.
+///
+/// Likelihood (Hogg, Bovy &amp; Lang 2010, arXiv:1008.4686, sections 7-8; effective variance after Orear 1982,
+/// Am. J. Phys. 50, 912):
+///   -2 ln L = sum_i m_i [ r_i^2 / V_i + ln V_i ],  r_i = X_i - f(C_i, F_i),
+///   V_i = sigma_X^2 + (df/dC)^2 sigma_C^2 - 2 (df/dC) Cov(X, C) + (df/dF)^2 sigma_F^2 + sigma_int^2,
+/// with m_i the standard's multiplicity (bootstrap) or 0 (left out). With the gradient terms frozen, the
+/// coefficients at fixed sigma_int are the weighted least-squares solution (weights m_i / V_i), so sigma_int is
+/// found by maximising the profile likelihood in ln sigma_int (Brent); the gradients are then recomputed from
+/// the new coefficients and the two steps repeated until the coefficients settle (iteratively reweighted
+/// least squares).
+///
+/// Outliers: after each fit every candidate standard's normalised residual z_i = r_i / sqrt(V_i) is computed;
+/// those with |z_i| &gt; clip are left out of the next fit, those back within the limit return, until the set no
+/// longer changes (iterative sigma clipping, common practice).
+/// </summary>
+internal sealed class EffectiveVarianceFit
+{
+    private const int MaxClipIterations = 25;
+    private const int MaxGradientIterations = 8;
+    private const double LnSigmaMin = -13.815510557964274; // ln 1e-6 mag
+    private const double LnSigmaMax = 1.6094379124341003;  // ln 5 mag
+    private const double LnSigmaTol = 1e-4;
+    private const double WarmBracket = 0.7;
+
+    private readonly FitData _d;
+    private readonly int _p;
+    private readonly double _clip;
+    private readonly double[] _terms, _dTermC, _dTermF; // N x p
+    private readonly double[] _baseVar, _resid, _gradF;
+    private readonly bool[] _active, _candidate;
+    private readonly double[] _a, _coef, _prev;
+    private double[] _w = [];
+
+    public EffectiveVarianceFit(FitData data, PolynomialBasis2D basis, double clipSigma)
+    {
+        _d = data;
+        Basis = basis;
+        _p = basis.Count;
+        _clip = clipSigma;
+        int n = data.N;
+        _terms = new double[n * _p];
+        _dTermC = new double[n * _p];
+        _dTermF = new double[n * _p];
+        for (int i = 0; i < n; i++)
+        {
+            if (!data.Usable[i]) continue;
+            basis.Terms(data.C[i], data.F[i], _terms.AsSpan(i * _p, _p));
+            basis.TermDerivatives(data.C[i], data.F[i], _dTermC.AsSpan(i * _p, _p), _dTermF.AsSpan(i * _p, _p));
+        }
+        _baseVar = new double[n];
+        _resid = new double[n];
+        _gradF = new double[n];
+        _active = new bool[n];
+        _candidate = new bool[n];
+        _a = new double[_p * _p];
+        _coef = new double[_p];
+        _prev = new double[_p];
+    }
+
+    public PolynomialBasis2D Basis { get; }
+    public ReadOnlySpan<double> Coefficients => _coef;
+    public double SigmaInt { get; private set; }
+
+    /// <summary>Standards kept by the last fit (candidates not clipped).</summary>
+    public ReadOnlySpan<bool> Active => _active;
+
+    /// <summary>Residual X - f of each candidate standard at the last fit (mag).</summary>
+    public ReadOnlySpan<double> Residual => _resid;
+
+    /// <summary>V_i - sigma_int^2 of each candidate standard at the last fit (mag^2).</summary>
+    public ReadOnlySpan<double> BaseVariance => _baseVar;
+
+    /// <summary>df/d[Fe/H] at each candidate standard at the last fit (mag per dex).</summary>
+    public ReadOnlySpan<double> GradientFeh => _gradF;
+
+    public int ClipIterations { get; private set; }
+
+    /// <summary>
+    /// Fits the standards with multiplicity <paramref name="weight"/> (0 = not a candidate). Returns null on
+    /// success, or why the fit failed (too few standards left, singular normal equations).
+    /// </summary>
+    public string? Fit(ReadOnlySpan<double> weight)
+    {
+        int n = _d.N;
+        _w = _w.Length == n ? _w : new double[n];
+        for (int i = 0; i < n; i++)
+        {
+            _w[i] = _d.Usable[i] ? weight[i] : 0.0;
+            _active[i] = _w[i] > 0;
+        }
+        SigmaInt = 0;
+        for (int iter = 1; iter <= MaxClipIterations; iter++)
+        {
+            ClipIterations = iter;
+            int distinct = 0;
+            for (int i = 0; i < n; i++) if (_active[i]) distinct++;
+            if (distinct < _p + 1) return $"{distinct} standards left for {_p} coefficients (at least {_p + 1} needed)";
+            string? err = FitActiveSet(warm: iter > 1);
+            if (err is not null) return err;
+            double s2 = SigmaInt * SigmaInt;
+            bool changed = false;
+            for (int i = 0; i < n; i++)
+            {
+                if (_w[i] <= 0) continue;
+                double z = _resid[i] / Math.Sqrt(_baseVar[i] + s2);
+                bool keep = Math.Abs(z) <= _clip;
+                _candidate[i] = keep;
+                if (keep != _active[i]) changed = true;
+            }
+            if (!changed) return null;
+            for (int i = 0; i < n; i++) if (_w[i] > 0) _active[i] = _candidate[i];
+        }
+        return null; // the set oscillates between two states; the last fit stands (rare, reported by iteration count)
+    }
+
+    /// <summary>Normalised residual of candidate i at the last fit.</summary>
+    public double Z(int i) => _resid[i] / Math.Sqrt(_baseVar[i] + SigmaInt * SigmaInt);
+
+    /// <summary>Inverse Fisher matrix of the coefficients at the last fit (row-major p x p). False if singular.</summary>
+    public bool Covariance(Span<double> cov)
+    {
+        BuildNormalEquations(SigmaInt * SigmaInt, solve: false);
+        if (!SmallCholesky.Factor(_a, _p)) return false;
+        SmallCholesky.Inverse(_a, _p, cov);
+        return true;
+    }
+
+    private string? FitActiveSet(bool warm)
+    {
+        int n = _d.N, p = _p;
+        if (!warm)
+        {
+            // First pass of a fit: no gradient terms yet. Later clipping passes start from the previous
+            // pass's gradients and sigma_int, which are already close.
+            for (int i = 0; i < n; i++) _gradF[i] = 0;
+            for (int i = 0; i < n; i++) if (_w[i] > 0) _baseVar[i] = _d.VarX[i];
+        }
+        for (int g = 0; g < MaxGradientIterations; g++)
+        {
+            double t;
+            if (warm || g > 0)
+            {
+                // Search near the previous ln sigma_int; fall back to the full bracket if the minimum is at its edge.
+                double t0 = Math.Log(Math.Max(SigmaInt, Math.Exp(LnSigmaMin)));
+                double lo = Math.Max(LnSigmaMin, t0 - WarmBracket), hi = Math.Min(LnSigmaMax, t0 + WarmBracket);
+                t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, lo, hi, LnSigmaTol);
+                if ((t - lo < 10 * LnSigmaTol && lo > LnSigmaMin) || (hi - t < 10 * LnSigmaTol && hi < LnSigmaMax))
+                    t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, LnSigmaMin, LnSigmaMax, LnSigmaTol);
+            }
+            else
+                t = BrentMinimizer.Minimize(static (self, lnS) => self.MinusTwoLnL(Math.Exp(2 * lnS)), this, LnSigmaMin, LnSigmaMax, LnSigmaTol);
+            SigmaInt = Math.Exp(t);
+            if (!double.IsFinite(MinusTwoLnL(SigmaInt * SigmaInt))) return "the normal equations are singular (too few distinct colours or [Fe/H] values for this degree)";
+            // New gradients and effective variances from the new coefficients.
+            // Convergence: largest coefficient change relative to the largest coefficient (the basis is scaled
+            // to [-1, 1], so coefficients are comparable).
+            double maxChange = 0, maxCoef = 1e-300;
+            for (int k = 0; k < p; k++)
+            {
+                maxChange = Math.Max(maxChange, Math.Abs(_coef[k] - _prev[k]));
+                maxCoef = Math.Max(maxCoef, Math.Abs(_coef[k]));
+                _prev[k] = _coef[k];
+            }
+            maxChange /= maxCoef;
+            for (int i = 0; i < n; i++)
+            {
+                if (_w[i] <= 0) continue;
+                double dc = 0, df = 0;
+                int o = i * p;
+                for (int k = 0; k < p; k++) { dc += _coef[k] * _dTermC[o + k]; df += _coef[k] * _dTermF[o + k]; }
+                _gradF[i] = df;
+                _baseVar[i] = _d.VarX[i] + dc * dc * _d.VarC[i] - 2 * dc * _d.Cov[i] + df * df * _d.VarF[i];
+            }
+            if ((g > 0 || warm) && maxChange < 1e-8) break;
+        }
+        // Residuals of every candidate at the final coefficients.
+        for (int i = 0; i < n; i++)
+        {
+            if (_w[i] <= 0) continue;
+            double f = 0;
+            int o = i * p;
+            for (int k = 0; k < p; k++) f += _coef[k] * _terms[o + k];
+            _resid[i] = _d.X[i] - f;
+        }
+        return null;
+    }
+
+    /// <summary>Solves the weighted normal equations at sigma_int^2 = s2 into _coef and returns -2 ln L (+inf if singular).</summary>
+    private double MinusTwoLnL(double s2)
+    {
+        if (!BuildNormalEquations(s2, solve: true)) return double.PositiveInfinity;
+        int n = _d.N, p = _p;
+        double sum = 0;
+        for (int i = 0; i < n; i++)
+        {
+            if (!_active[i]) continue;
+            double f = 0;
+            int o = i * p;
+            for (int k = 0; k < p; k++) f += _coef[k] * _terms[o + k];
+            double r = _d.X[i] - f, v = _baseVar[i] + s2;
+            sum += _w[i] * (r * r / v + Math.Log(v));
+        }
+        return sum;
+    }
+
+    private bool BuildNormalEquations(double s2, bool solve)
+    {
+        int n = _d.N, p = _p;
+        var a = _a.AsSpan();
+        a.Clear();
+        Span<double> rhs = _coef;
+        rhs.Clear();
+        for (int i = 0; i < n; i++)
+        {
+            if (!_active[i]) continue;
+            double w = _w[i] / (_baseVar[i] + s2);
+            int o = i * p;
+            double wx = w * _d.X[i];
+            for (int r = 0; r < p; r++)
+            {
+                double wt = w * _terms[o + r];
+                rhs[r] += wx * _terms[o + r];
+                int row = r * p;
+                for (int c = 0; c <= r; c++) a[row + c] += wt * _terms[o + c];
+            }
+        }
+        if (!solve) return true;
+        if (!SmallCholesky.Factor(a, p)) return false;
+        SmallCholesky.Solve(a, p, rhs);
+        return true;
+    }
+}

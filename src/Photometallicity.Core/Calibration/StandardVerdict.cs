@@ -1,0 +1,31 @@
+namespace Photometallicity.Calibration;
+
+/// <summary>What the calibration decided about one standard.</summary>
+public enum StandardStatus
+{
+    Accepted,
+    /// <summary>Rejected by iterative clipping (binary, non-member, bad spectrum, ...).</summary>
+    RejectedOutlier,
+    /// <summary>A measurement is missing or not finite.</summary>
+    Unusable,
+    /// <summary>log g above the giant limit.</summary>
+    RejectedLogG,
+}
+
+/// <summary>
+/// One standard's outcome: status and reason, residual of the index about the best fit (mag, observed minus
+/// model), the same in effective sigmas and in [Fe/H] (dex, photometric minus spectroscopic, = residual /
+/// (df/d[Fe/H])), and the cross-validated residual (from the fit without the standard's fold).
+/// </summary>
+public sealed record StandardVerdict(
+    string Id,
+    StandardStatus Status,
+    string Reason,
+    double ResidualIndex,
+    double ResidualSigma,
+    double ResidualDex,
+    double CvResidualIndex,
+    double CvResidualDex)
+{
+    public bool Accepted => Status == StandardStatus.Accepted;
+}

@@ -1,0 +1,67 @@
+using Photometallicity.Units;
+
+namespace Photometallicity.Configuration;
+
+/// <summary>The validated, resolved configuration of a run (all paths absolute).</summary>
+public sealed record PipelineConfig
+{
+    /// <summary>Absolute path of the config file.</summary>
+    public required string ConfigPath { get; init; }
+    public required CatalogueConfig Broadband { get; init; }
+    public required CatalogueConfig Narrowband { get; init; }
+    public required BandConfig Blue { get; init; }
+    public required BandConfig Red { get; init; }
+    public required BandConfig Narrow { get; init; }
+    public required string PhotometricSystem { get; init; }
+    public required ReddeningConfig Reddening { get; init; }
+    public required CrossMatchConfig CrossMatch { get; init; }
+    public required IndexConfig Index { get; init; }
+    public required IReadOnlyList<StandardSetConfig> Standards { get; init; }
+    public required CalibrationConfig Calibration { get; init; }
+    public required MetallicityConfig Metallicity { get; init; }
+    public required TargetConfig Target { get; init; }
+    public required MembershipConfig Membership { get; init; }
+    public required ForecastConfig Forecast { get; init; }
+    public required OutputConfig Output { get; init; }
+
+    /// <summary>The master seed: every random draw of the run derives from it.</summary>
+    public required ulong Seed { get; init; }
+}
+
+/// <summary>Which catalogue a band's columns come from.</summary>
+public enum CatalogueSide { Broadband, Narrowband }
+
+public sealed record CatalogueConfig(string Path, string? IdColumn, string RaColumn, string DecColumn, string? FlagColumn,
+    IReadOnlyList<double> MissingValues, string? Extension);
+
+/// <summary>A band's extinction coefficient A_band / E(B-V): a number, or computed from a filter curve.</summary>
+public sealed record ExtinctionSpec(double? Value, string? CurvePath, string Law, double Rv, double? TeffK)
+{
+    public override string ToString() => Value is { } v ? v.ToString("G6", System.Globalization.CultureInfo.InvariantCulture)
+        : $"{System.IO.Path.GetFileName(CurvePath)} ({Law}, R_V = {Rv})";
+}
+
+/// <summary>One band: where its columns are, its filter's name (recorded in the calibration), extinction, zero point, error cut.</summary>
+public sealed record BandConfig(string Name, CatalogueSide From, string MagColumn, string ErrColumn, ExtinctionSpec Extinction,
+    double ZeroPoint, double MaxError, string Filter);
+
+public sealed record ReddeningConfig(string? Column, double? Value, string? ErrorColumn, double? Error);
+
+public sealed record CrossMatchConfig(double? RadiusArcsec, bool AutoRadius, bool SolveOffset, bool SolveRotationScale);
+
+public sealed record IndexConfig(double ColourCoefficient, double? ColourMin, double? ColourMax);
+
+public sealed record StandardSetConfig(string Path, string? IdColumn, string RaColumn, string DecColumn, string FehColumn,
+    string FehErrColumn, string? LogGColumn, double MatchRadiusArcsec, string Name);
+
+public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma);
+
+public sealed record MetallicityConfig(double GridMin, double GridMax, double GridStep, double? PriorMean, double? PriorSigma);
+
+public sealed record TargetConfig(SkyPosition Centre, double DistanceModulus, double? HalfLightArcmin, string Profile);
+
+public sealed record MembershipConfig(bool UseMetallicity, double OuterRadiusMultiple, string MagnitudeBand);
+
+public sealed record ForecastConfig(double PrecisionDex, IReadOnlyList<double> Colours, double FehDex);
+
+public sealed record OutputConfig(string Directory, IReadOnlyList<string> Formats, bool Plots);

@@ -1,0 +1,145 @@
+namespace Photometallicity.Metallicity;
+
+/// <summary>What <see cref="StarSolver"/> found for one star.</summary>
+internal readonly record struct StarSummary(MetallicityStatus Status, double Feh, double FehLo, double FehHi, double Limit, FehLimitSide Side)
+{
+    public static StarSummary Without(MetallicityStatus s) => new(s, double.NaN, double.NaN, double.NaN, double.NaN, FehLimitSide.None);
+}
+
+/// <summary>
+/// One star from photometry to status, percentiles and stored likelihood. Edge tests use the best-fit model at the star's first
+/// and last grid points inside the domain: z = (X0 - f_edge) / sigma_eff,edge beyond the edge where the model is largest (or
+/// smallest). z &gt; <see cref="MetallicityOptions.LimitSigmas"/> gives a limit; Phi(z) &gt; TruncationFraction (the share of
+/// the likelihood, in the index, that the domain cuts off) gives PosteriorTruncated. Percentiles: the posterior on the grid is
+/// integrated by the trapezoid rule and the CDF interpolated linearly. One instance per thread.
+/// </summary>
+internal sealed class StarSolver
+{
+    private readonly EnsembleGrid _g;
+    private readonly LikelihoodKernel _kernel;
+    private readonly MetallicityOptions _o;
+    private readonly Calibration.ValidityDomain _domain;
+    private readonly double _gridMin, _gridStep, _sint2Best, _truncZ;
+    private readonly double[] _prior;
+    private readonly double[] _post;
+
+    public StarSolver(EnsembleGrid grid, Calibration.CalibrationModel model, MetallicityOptions o, double[] prior, double truncZ)
+    {
+        _g = grid;
+        _kernel = new LikelihoodKernel(grid);
+        _o = o;
+        _domain = model.Domain;
+        _gridMin = o.GridMin;
+        _gridStep = o.GridStep;
+        _sint2Best = model.SigmaInt * model.SigmaInt;
+        _prior = prior;
+        _truncZ = truncZ;
+        _post = new double[grid.RowStride];
+    }
+
+    /// <summary>[Fe/H] of tabulated point j.</summary>
+    private double FehAt(double j) => _gridMin + (_g.FehFirst + j) * _gridStep;
+
+    public StarSummary Solve(double x0, double c0, double vx, double vc, double cov, LikelihoodBuffer? store, out int start, out int length)
+    {
+        start = 0;
+        length = 0;
+        if (!(double.IsFinite(x0) && double.IsFinite(c0) && double.IsFinite(cov) && vx >= 0 && vc >= 0 && double.IsFinite(vx) && double.IsFinite(vc)))
+            return StarSummary.Without(MetallicityStatus.BadPhotometry);
+        if (_domain.IsNonMonotonic(c0)) return StarSummary.Without(MetallicityStatus.NonMonotonic);
+        if (_domain.FehRangeAt(c0) is not { } range) return StarSummary.Without(MetallicityStatus.ColourOutsideCalibration);
+        int first = _g.FehFirst;
+        int j0 = Math.Max(0, (int)Math.Ceiling((range.FehLo - _gridMin) / _gridStep - 1e-9) - first);
+        int j1 = Math.Min(_g.FehCount - 1, (int)Math.Floor((range.FehHi - _gridMin) / _gridStep + 1e-9) - first);
+        if (j1 - j0 < 1) return StarSummary.Without(MetallicityStatus.ColourOutsideCalibration);
+
+        var (k, t) = _g.Locate(c0);
+        var (fLo, sLo) = BestAt(k, t, j0, vx, vc, cov);
+        var (fHi, sHi) = BestAt(k, t, j1, vx, vc, cov);
+        bool rising = fHi >= fLo;
+        double zAbove = rising ? (x0 - fHi) / sHi : (x0 - fLo) / sLo;
+        double zBelow = rising ? (fLo - x0) / sLo : (fHi - x0) / sHi;
+
+        bool any = _kernel.Evaluate(k, t, x0, vx, vc, cov, j0, j1, _o.WindowSigmas, out int a, out int b);
+        double total = 0;
+        if (any)
+        {
+            var like = _kernel.Values(a, b);
+            for (int j = 0; j < like.Length; j++) total += _post[j] = like[j] * _prior[a + j];
+        }
+        bool limit = Math.Max(zAbove, zBelow) > _o.LimitSigmas;
+        if (limit || !(total > 0))
+        {
+            bool above = zAbove >= zBelow;
+            bool highEdge = above == rising; // the edge the index points beyond is the high-[Fe/H] one
+            var side = highEdge ? FehLimitSide.Lower : FehLimitSide.Upper;
+            double lim = total > 0 ? Percentile(a, b - a, highEdge ? 0.16 : 0.84) : FehAt(highEdge ? j1 : j0);
+            var status = above ? MetallicityStatus.IndexAboveRange : MetallicityStatus.IndexBelowRange;
+            return new StarSummary(status, double.NaN, highEdge ? lim : double.NaN, highEdge ? double.NaN : lim, lim, side);
+        }
+        double med = Percentile(a, b - a, 0.5);
+        double p16 = Percentile(a, b - a, 0.16);
+        double p84 = Percentile(a, b - a, 0.84);
+        var st = Math.Max(zAbove, zBelow) > _truncZ ? MetallicityStatus.PosteriorTruncated : MetallicityStatus.Ok;
+        if (store is not null) (start, length) = Store(a, b, store);
+        return new StarSummary(st, med, p16, p84, double.NaN, FehLimitSide.None);
+    }
+
+    private (double F, double Sigma) BestAt(int k, float t, int j, double vx, double vc, double cov)
+    {
+        int s = _g.RowStride;
+        double f = _g.BestValue[k * s + j] + t * (_g.BestValue[(k + 1) * s + j] - _g.BestValue[k * s + j]);
+        double g = _g.BestSlope[k * s + j] + t * (_g.BestSlope[(k + 1) * s + j] - _g.BestSlope[k * s + j]);
+        return (f, Math.Sqrt(Math.Max(vx + g * g * vc - 2 * g * cov + _sint2Best, 1e-30)));
+    }
+
+    /// <summary>The q-quantile of the posterior held in _post[0 .. n-1] (tabulated points a ..), trapezoid CDF, linear interpolation.</summary>
+    private double Percentile(int a, int n, double q)
+    {
+        if (n == 1) return FehAt(a);
+        double cdfTotal = 0;
+        for (int j = 1; j < n; j++) cdfTotal += 0.5 * (_post[j - 1] + _post[j]);
+        double target = q * cdfTotal, cum = 0;
+        for (int j = 1; j < n; j++)
+        {
+            double step = 0.5 * (_post[j - 1] + _post[j]);
+            if (cum + step >= target && step > 0) return FehAt(a + j - 1 + (target - cum) / step);
+            cum += step;
+        }
+        return FehAt(a + n - 1);
+    }
+
+    /// <summary>Stores the likelihood (no prior) where it is at least 1e-6 of its peak, normalised to sum x GridStep = 1.</summary>
+    private (int Start, int Length) Store(int a, int b, LikelihoodBuffer store)
+    {
+        var like = _kernel.Values(a, b);
+        float peak = 0;
+        foreach (float v in like) peak = Math.Max(peak, v);
+        float cut = peak * 1e-6f;
+        int lo = 0, hi = like.Length - 1;
+        while (like[lo] < cut) lo++;
+        while (like[hi] < cut) hi--;
+        double sum = 0;
+        for (int j = lo; j <= hi; j++) sum += like[j];
+        float scale = (float)(1.0 / (sum * _gridStep));
+        var dst = store.Reserve(hi - lo + 1);
+        for (int j = lo; j <= hi; j++) dst[j - lo] = like[j] * scale;
+        return (_g.FehFirst + a + lo, hi - lo + 1);
+    }
+}
+
+/// <summary>A growable float buffer for the likelihood windows of one chunk of stars.</summary>
+internal sealed class LikelihoodBuffer
+{
+    private float[] _data = new float[4096];
+    public int Count { get; private set; }
+    public ReadOnlySpan<float> Data => _data.AsSpan(0, Count);
+
+    public Span<float> Reserve(int n)
+    {
+        if (Count + n > _data.Length) Array.Resize(ref _data, Math.Max(_data.Length * 2, Count + n));
+        var s = _data.AsSpan(Count, n);
+        Count += n;
+        return s;
+    }
+}

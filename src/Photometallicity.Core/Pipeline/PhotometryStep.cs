@@ -1,0 +1,109 @@
+using Microsoft.Extensions.Logging;
+using Photometallicity.Calibration;
+using Photometallicity.Catalogues;
+using Photometallicity.Configuration;
+using Photometallicity.Photometry;
+using Photometallicity.Photometry.Extinction;
+
+namespace Photometallicity.Pipeline;
+
+/// <summary>What the photometric preparation of a run produced.</summary>
+public sealed record PhotometryProducts(
+    PhotometryResult Result,
+    BandValues ExtinctionCoefficients,
+    FilterSet Filters,
+    IReadOnlyList<PhotometricErrorModel> ErrorModels,
+    double[] Ebv)
+{
+    public IndexPhotometry Index => Result.Photometry;
+}
+
+/// <summary>
+/// Gathers each band's magnitudes for every broadband row (narrow-band values through the cross-match),
+/// resolves the extinction coefficients (numbers or filter-curve recipes), runs the photometric preparation
+/// and fits each band's error model.
+/// </summary>
+public static class PhotometryStep
+{
+    public static PhotometryProducts Run(PipelineConfig config, InputCatalogues inputs, int[] narrowIndexPerRow, ILogger log)
+    {
+        var broad = inputs.Broadband;
+        int n = broad.RowCount;
+        double[] Values(BandConfig band, string column)
+        {
+            if (band.From == CatalogueSide.Broadband) return broad.RequireDoubles(column);
+            double[] right = inputs.Narrowband.RequireDoubles(column);
+            var v = new double[n];
+            for (int i = 0; i < n; i++) v[i] = narrowIndexPerRow[i] >= 0 ? right[narrowIndexPerRow[i]] : double.NaN;
+            return v;
+        }
+        bool[] hasNarrow = new bool[n];
+        for (int i = 0; i < n; i++) hasNarrow[i] = narrowIndexPerRow[i] >= 0;
+
+        double[] ebv = config.Reddening.Column is { } ec ? broad.RequireDoubles(ec) : Enumerable.Repeat(config.Reddening.Value ?? 0.0, n).ToArray();
+        StarValues? ebvErr = config.Reddening.ErrorColumn is { } eec ? StarValues.PerStar(broad.RequireDoubles(eec))
+            : config.Reddening.Error is { } e ? StarValues.Constant(e) : null;
+        bool[]? flagged = null;
+        if (config.Broadband.FlagColumn is { } fc)
+        {
+            var col = broad.Require(fc, "broadband.flag");
+            flagged = new bool[n];
+            for (int i = 0; i < n; i++) flagged[i] = !col.IsMissing(i) && col.GetDouble(i) != 0;
+        }
+
+        var coefficients = new BandValues(Coefficient(config.Blue, log), Coefficient(config.Red, log), Coefficient(config.Narrow, log));
+        var inputsArrays = new PhotometryInputs
+        {
+            BlueMag = Values(config.Blue, config.Blue.MagColumn),
+            BlueErr = Values(config.Blue, config.Blue.ErrColumn),
+            RedMag = Values(config.Red, config.Red.MagColumn),
+            RedErr = Values(config.Red, config.Red.ErrColumn),
+            NarrowMag = Values(config.Narrow, config.Narrow.MagColumn),
+            NarrowErr = Values(config.Narrow, config.Narrow.ErrColumn),
+            HasNarrowMatch = hasNarrow,
+            Ebv = StarValues.PerStar(ebv),
+            EbvErr = ebvErr,
+            CatalogueFlagged = flagged,
+        };
+        var options = new PhotometryOptions
+        {
+            ExtinctionCoefficients = coefficients,
+            ZeroPoints = new BandValues(config.Blue.ZeroPoint, config.Red.ZeroPoint, config.Narrow.ZeroPoint),
+            ColourCoefficient = config.Index.ColourCoefficient,
+            MaxError = new BandValues(config.Blue.MaxError, config.Red.MaxError, config.Narrow.MaxError),
+            ColourMin = config.Index.ColourMin,
+            ColourMax = config.Index.ColourMax,
+        };
+        var result = PhotometryPreparer.Run(inputsArrays, options, log);
+
+        var models = new List<PhotometricErrorModel>();
+        foreach (var band in new[] { config.Blue, config.Red, config.Narrow })
+        {
+            var table = band.From == CatalogueSide.Broadband ? broad : inputs.Narrowband;
+            try
+            {
+                models.Add(ErrorModelFitter.Fit(band.Filter, table.RequireDoubles(band.MagColumn), table.RequireDoubles(band.ErrColumn), log));
+            }
+            catch (Errors.MethodException ex)
+            {
+                log.LogWarning("no error model for the {Band} band: {Message}", band.Name, ex.Message);
+            }
+        }
+
+        var filters = new FilterSet(config.PhotometricSystem, config.Blue.Filter, config.Red.Filter, config.Narrow.Filter,
+            config.Index.ColourCoefficient, coefficients.Blue, coefficients.Red, coefficients.Narrow);
+        return new PhotometryProducts(result, coefficients, filters, models, ebv);
+    }
+
+    private static double Coefficient(BandConfig band, ILogger log)
+    {
+        var spec = band.Extinction;
+        if (spec.Value is { } v) return v;
+        var curve = FilterCurve.Load(spec.CurvePath!);
+        var law = ExtinctionLaws.FromName(spec.Law, $"bands.{band.Name}.extinction.law");
+        var r = BandExtinction.Compute(curve, law, spec.Rv, spec.TeffK, spec.CurvePath);
+        log.LogInformation("extinction {Band}: A/E(B-V) = {A:F3} from {Curve} ({Law}, R_V = {Rv}), effective wavelength {L:F0} A",
+            band.Name, r.AOverEbv, Path.GetFileName(spec.CurvePath), spec.Law, spec.Rv, r.LambdaEffAngstrom);
+        return r.AOverEbv;
+    }
+}

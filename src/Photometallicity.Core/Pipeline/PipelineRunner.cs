@@ -1,0 +1,155 @@
+using System.Diagnostics;
+using Microsoft.Extensions.Logging;
+using Microsoft.Extensions.Logging.Abstractions;
+using Photometallicity.Calibration;
+using Photometallicity.Configuration;
+using Photometallicity.CrossMatch;
+using Photometallicity.Metallicity;
+using Photometallicity.Units;
+
+namespace Photometallicity.Pipeline;
+
+/// <summary>
+/// Chains the stages of a run on in-memory data: catalogues, cross-match, photometry, calibration, per-star
+/// [Fe/H], membership. Nothing is written here (see <see cref="RunOutputWriter"/>), so a failure at any stage
+/// leaves no output behind.
+/// </summary>
+public static class PipelineRunner
+{
+    public static PipelineResult Run(PipelineConfig config, ILogger? logger = null, ProgressReporter? progress = null)
+    {
+        var log = logger ?? NullLogger.Instance;
+        var timings = new List<(string, double)>();
+        var warnings = new List<string>();
+        var clock = Stopwatch.StartNew();
+        void Lap(string stage)
+        {
+            timings.Add((stage, Math.Round(clock.Elapsed.TotalSeconds, 3)));
+            log.LogInformation("{Stage} took {Seconds:F2} s", stage, clock.Elapsed.TotalSeconds);
+            clock.Restart();
+        }
+
+        var inputs = InputCatalogues.Load(config);
+        log.LogInformation("read {B} broadband rows, {N} narrow-band rows, {S} standards", inputs.Broadband.RowCount, inputs.Narrowband.RowCount,
+            inputs.Standards.Sum(s => s.RowCount));
+        Lap("read");
+
+        var b = inputs.Broadband;
+        double[] bra = b.RequireDoubles(config.Broadband.RaColumn), bdec = b.RequireDoubles(config.Broadband.DecColumn);
+        double[] nra = inputs.Narrowband.RequireDoubles(config.Narrowband.RaColumn), ndec = inputs.Narrowband.RequireDoubles(config.Narrowband.DecColumn);
+        var match = CrossMatcher.Run(bra, bdec, nra, ndec, new CrossMatchOptions
+        {
+            Radius = Angle.FromArcseconds(config.CrossMatch.RadiusArcsec ?? 1.0),
+            AutoRadius = config.CrossMatch.AutoRadius,
+            SolveOffset = config.CrossMatch.SolveOffset,
+            SolveRotationScale = config.CrossMatch.SolveRotationScale,
+        }, log);
+        log.LogInformation("cross-match: {Matched} of {Rows} broadband rows matched within {R:F2} arcsec; offset {Dx:+0.000;-0.000}, {Dy:+0.000;-0.000} arcsec from {Pairs} secure pairs; false-match rate expected {Fe:P2}, measured {Fm:P2}",
+            match.Matched, b.RowCount, match.RadiusUsed.Arcseconds, match.Offset.DRaCosDecArcsec, match.Offset.DDecArcsec, match.SecurePairsUsed,
+            match.ExpectedFalseMatchRate, match.MeasuredFalseMatchRate);
+        Lap("crossmatch");
+
+        var photometry = PhotometryStep.Run(config, inputs, match.RightIndex, log);
+        Lap("photometry");
+
+        var standards = StandardsStep.Build(config, inputs, bra, bdec, photometry.Index, log);
+        CalibrationResult calibration;
+        using (var p = progress?.For("calibration bootstrap"))
+        {
+            calibration = CalibrationFitter.Run(standards.Standards, new CalibrationOptions
+            {
+                Bootstrap = config.Calibration.Bootstrap,
+                Seed = config.Calibration.Seed,
+                Degree = config.Calibration.Degree,
+                MaxDegree = config.Calibration.MaxDegree,
+                ClipSigma = config.Calibration.ClipSigma,
+                Filters = photometry.Filters,
+            }, log, p);
+        }
+        var cm = calibration.Model;
+        log.LogInformation("calibration: {Used} standards used, {Rejected} rejected, degree {Degree}, rms {Rms:F3} dex, sigma_int {Sig:F3} mag",
+            cm.StandardsUsed, cm.StandardsRejected, cm.Basis.Degree, cm.RmsDex, cm.SigmaInt);
+        Lap("calibration");
+
+        MetallicityResult metallicity;
+        using (var p = progress?.For("metallicity"))
+        {
+            metallicity = MetallicityAssigner.Run(photometry.Index, cm, new MetallicityOptions
+            {
+                GridMin = config.Metallicity.GridMin,
+                GridMax = config.Metallicity.GridMax,
+                GridStep = config.Metallicity.GridStep,
+                PriorMean = config.Metallicity.PriorMean,
+                PriorSigma = config.Metallicity.PriorSigma,
+            }, log, p);
+        }
+        log.LogInformation("metallicity: {Counts}", string.Join(", ", metallicity.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
+        Lap("metallicity");
+
+        var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
+        var membership = MembershipStep.Run(config, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
+        warnings.AddRange(membership.Warnings);
+        log.LogInformation("membership: {Expected:F1} expected members; MDF mean {Mean:F3} +/- {MeanErr:F3}, sigma {Sigma:F3} +/- {SigmaErr:F3} dex",
+            membership.ExpectedMembers, membership.Mdf?.Mean ?? double.NaN, membership.Mdf?.MeanErr ?? double.NaN,
+            membership.Mdf?.Sigma ?? double.NaN, membership.Mdf?.SigmaErr ?? double.NaN);
+        Lap("membership");
+
+        var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
+        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership);
+        foreach (var w in warnings) log.LogWarning("{Warning}", w);
+        return new PipelineResult
+        {
+            Config = config,
+            Inputs = inputs,
+            Match = match,
+            Photometry = photometry,
+            Standards = standards,
+            Calibration = calibration,
+            Metallicity = metallicity,
+            Membership = membership,
+            Completeness = completeness,
+            Stars = stars,
+            Warnings = warnings,
+            Timings = timings,
+        };
+    }
+
+    private static double[] BandErrors(BandConfig band, InputCatalogues inputs, int[] narrowIndex)
+    {
+        var t = band.From == CatalogueSide.Broadband ? inputs.Broadband : inputs.Narrowband;
+        double[] e = t.RequireDoubles(band.ErrColumn);
+        if (band.From == CatalogueSide.Broadband) return e;
+        return narrowIndex.Select(k => k >= 0 ? e[k] : double.NaN).ToArray();
+    }
+
+    private static NarrowCompleteness CompletenessWarnings(PhotometryProducts phot, CrossMatchResult match, double[] pMember, MetallicityResult feh, List<string> warnings)
+    {
+        var ip = phot.Index;
+        int n = ip.Count;
+        var has = new bool[n];
+        var consider = new bool[n];
+        for (int i = 0; i < n; i++)
+        {
+            has[i] = match.RightIndex[i] >= 0;
+            consider[i] = ip.HasUsableColour(i) && pMember[i] >= 0.5;
+        }
+        var c = NarrowCompleteness.Measure(ip.Blue0, has, consider);
+        if (!double.IsFinite(c.CompleteToMag)) return c;
+        double wAll = 0, wBeyond = 0, outside = 0, withColour = 0;
+        for (int i = 0; i < n; i++)
+        {
+            double p = pMember[i];
+            if (!double.IsFinite(p)) continue;
+            if (ip.HasUsableColour(i)) withColour += p;
+            if (feh.Status[i] == MetallicityStatus.ColourOutsideCalibration) outside += p;
+            if (!double.IsFinite(feh.Feh[i])) continue;
+            wAll += p;
+            if (ip.Blue0[i] > c.CompleteToMag) wBeyond += p;
+        }
+        if (wAll > 0 && wBeyond / wAll > 0.1)
+            warnings.Add($"{100 * wBeyond / wAll:F0}% of the members' [Fe/H] weight comes from stars fainter than blue0 = {c.CompleteToMag:F2}, where narrow-band detection is incomplete: the metallicity distribution may be biased metal-poor there");
+        if (withColour > 0 && outside / withColour > 0.05)
+            warnings.Add($"{100 * outside / withColour:F0}% of the likely members lie outside the calibrated colour range");
+        return c;
+    }
+}

@@ -1,0 +1,30 @@
+namespace Photometallicity.Pipeline;
+
+/// <summary>
+/// The per-star products of a run, one entry per broadband input row in input order (columnar, plain arrays).
+/// NaN (or null) where a value does not exist for the row; <see cref="Status"/> says why.
+/// </summary>
+public sealed class StarRows
+{
+    public required string[] Id { get; init; }
+    public required double[] Ra { get; init; }
+    public required double[] Dec { get; init; }
+    public required string?[] NarrowId { get; init; }
+    public required double[] MatchSepArcsec { get; init; }
+    public required int[] MatchFlag { get; init; }
+    public required double[] Blue0 { get; init; }
+    public required double[] Red0 { get; init; }
+    public required double[] Narrow0 { get; init; }
+    public required double[] Colour0 { get; init; }
+    public required double[] Colour0Err { get; init; }
+    public required double[] Index0 { get; init; }
+    public required double[] Index0Err { get; init; }
+    public required double[] CovIndexColour { get; init; }
+    public required double[] Feh { get; init; }
+    public required double[] FehLo { get; init; }
+    public required double[] FehHi { get; init; }
+    public required double[] PMember { get; init; }
+    public required string[] Status { get; init; }
+
+    public int Count => Id.Length;
+}

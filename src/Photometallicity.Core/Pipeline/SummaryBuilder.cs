@@ -1,0 +1,137 @@
+using System.Text.Json;
+using System.Text.Json.Nodes;
+using Photometallicity.Membership;
+
+namespace Photometallicity.Pipeline;
+
+/// <summary>
+/// Builds summary.json: the key numbers of every stage with their uncertainties, warnings and provenance
+/// (version, seeds, resolved config, input checksums, timings). Keys keep a fixed order; non-finite numbers are null.
+/// </summary>
+public static class SummaryBuilder
+{
+    public static JsonObject Build(PipelineResult r)
+    {
+        var c = r.Config;
+        string dir = Path.GetDirectoryName(c.ConfigPath)!;
+        string Rel(string p) => Path.GetRelativePath(dir, p);
+        var m = r.Match;
+        var cal = r.Calibration;
+        var mem = r.Membership;
+        var s = mem.Structure;
+        var summary = new JsonObject
+        {
+            ["tool"] = new JsonObject { ["name"] = "photometallicity", ["version"] = ToolVersion.Current },
+            ["inputs"] = new JsonArray(r.Inputs.Checksums.Select(x => (JsonNode)new JsonObject { ["path"] = Rel(x.Path), ["sha256"] = x.Sha256 }).ToArray()),
+            ["rows"] = new JsonObject
+            {
+                ["broadband"] = r.Inputs.Broadband.RowCount,
+                ["narrowband"] = r.Inputs.Narrowband.RowCount,
+                ["standards"] = r.Standards.Total,
+            },
+            ["crossmatch"] = new JsonObject
+            {
+                ["matched"] = m.Matched,
+                ["radius_arcsec"] = N(m.RadiusUsed.Arcseconds),
+                ["radius_reason"] = m.RadiusReason,
+                ["offset_arcsec"] = new JsonArray(N(m.Offset.DRaCosDecArcsec), N(m.Offset.DDecArcsec)),
+                ["offset_err_arcsec"] = new JsonArray(N(m.OffsetError.DRaCosDecArcsec), N(m.OffsetError.DDecArcsec)),
+                ["offset_solved"] = m.OffsetSolved,
+                ["offset_note"] = m.OffsetReason,
+                ["secure_pairs"] = m.SecurePairsUsed,
+                ["possible_blends"] = m.BlendCount,
+                ["false_match_rate_expected"] = N(m.ExpectedFalseMatchRate),
+                ["false_match_rate_measured"] = N(m.MeasuredFalseMatchRate),
+                ["false_match_rate_measured_err"] = N(m.MeasuredFalseMatchRateError),
+                ["iterations"] = m.Iterations,
+                ["converged"] = m.Converged,
+            },
+            ["photometry"] = new JsonObject
+            {
+                ["extinction_a_over_ebv"] = new JsonObject
+                {
+                    ["blue"] = N(r.Photometry.ExtinctionCoefficients.Blue),
+                    ["red"] = N(r.Photometry.ExtinctionCoefficients.Red),
+                    ["narrow"] = N(r.Photometry.ExtinctionCoefficients.Narrow),
+                },
+                ["usable_for_index"] = r.Photometry.Result.Diagnostics.Usable,
+                ["usable_colour"] = r.Photometry.Result.Diagnostics.UsableColour,
+                ["error_models"] = new JsonArray(r.Photometry.ErrorModels.Select(e => (JsonNode)new JsonObject
+                {
+                    ["band"] = e.Band, ["depth_5sigma_mag"] = N(e.Depth5Sigma), ["floor_mag"] = N(e.Floor),
+                }).ToArray()),
+                ["narrow_complete_to_blue0_mag"] = N(r.Completeness.CompleteToMag),
+            },
+            ["calibration"] = new JsonObject
+            {
+                ["rms_dex"] = N(cal.Model.RmsDex),
+                ["rms_index_mag"] = N(cal.Model.RmsIndex),
+                ["cv_rms_dex"] = N(cal.CvRmsDex),
+                ["sigma_int_mag"] = N(cal.Model.SigmaInt),
+                ["degree"] = cal.Degree,
+                ["degree_reason"] = cal.DegreeReason,
+                ["standards_total"] = r.Standards.Total,
+                ["standards_used"] = cal.Model.StandardsUsed,
+                ["standards_rejected"] = cal.Model.StandardsRejected,
+                ["standards_excluded_before_fit"] = r.Standards.Excluded.Count,
+                ["bootstrap"] = cal.Model.EnsembleCoefficients.Length,
+                ["colour_range"] = new JsonArray(N(cal.Model.Domain.ColourMin), N(cal.Model.Domain.ColourMax)),
+                ["feh_range"] = new JsonArray(N(cal.Model.Domain.FehMin), N(cal.Model.Domain.FehMax)),
+                ["rejected"] = new JsonArray(cal.Rejected.Select(v => (JsonNode)new JsonObject { ["id"] = v.Id, ["reason"] = v.Reason }).ToArray()),
+            },
+            ["metallicity"] = new JsonObject(r.Metallicity.Counts.OrderBy(kv => (int)kv.Key).Select(kv => new KeyValuePair<string, JsonNode?>(kv.Key.ToString(), kv.Value))),
+            ["members"] = new JsonObject
+            {
+                ["expected"] = N(mem.ExpectedMembers),
+                ["significant"] = mem.Significant,
+                ["no_target_p_value"] = N(mem.NoTargetPValue),
+                ["centre_ra_deg"] = N(s.Centre.RaDegrees),
+                ["centre_dec_deg"] = N(s.Centre.DecDegrees),
+                ["centre_err_arcmin"] = new JsonArray(N(s.CentreRaCosDecErrArcmin), N(s.CentreDecErrArcmin)),
+                ["half_light_arcmin"] = N(s.HalfLightArcmin),
+                ["half_light_err_arcmin"] = N(s.HalfLightErrArcmin),
+                ["ellipticity"] = N(s.Ellipticity),
+                ["ellipticity_err"] = N(s.EllipticityErr),
+                ["position_angle_deg"] = N(s.PositionAngleDeg),
+                ["position_angle_err_deg"] = N(s.PositionAngleErrDeg),
+                ["profile"] = s.Profile.ToString().ToLowerInvariant(),
+                ["footprint_area_arcmin2"] = N(mem.FootprintAreaArcmin2),
+                ["converged"] = mem.Converged,
+            },
+            ["mdf"] = Mdf(mem.Mdf),
+            ["mdf_modes"] = new JsonObject
+            {
+                ["configured"] = c.Membership.UseMetallicity ? "with_metallicity_term" : "without_metallicity_term",
+                ["with_metallicity_term"] = Mdf(mem.MdfWithMetallicityTerm),
+                ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm),
+            },
+            ["warnings"] = new JsonArray(r.Warnings.Select(w => (JsonNode)JsonValue.Create(w)!).ToArray()),
+            ["provenance"] = new JsonObject
+            {
+                ["version"] = ToolVersion.Current,
+                ["seed"] = c.Seed,
+                ["seeds"] = new JsonObject { ["calibration_bootstrap"] = c.Calibration.Seed, ["membership"] = Numerics.Seeds.Derive(c.Seed, "membership") },
+                ["config"] = Rel(c.ConfigPath),
+                ["resolved_config"] = JsonSerializer.SerializeToNode(c, ResolvedConfigOptions),
+                ["timings_s"] = new JsonObject(r.Timings.Select(t => new KeyValuePair<string, JsonNode?>(t.Stage, t.Seconds))),
+            },
+        };
+        return summary;
+    }
+
+    private static readonly JsonSerializerOptions ResolvedConfigOptions = new() { NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals };
+
+    public static JsonNode? Mdf(MdfFit? f) => f is null ? null : new JsonObject
+    {
+        ["mean"] = N(f.Mean),
+        ["mean_err"] = N(f.MeanErr),
+        ["sigma"] = N(f.Sigma),
+        ["sigma_err"] = N(f.SigmaErr),
+        ["weight_sum"] = N(f.WeightSum),
+        ["stars"] = f.StarCount,
+        ["sigma_at_floor"] = f.SigmaAtFloor,
+        ["converged"] = f.Converged,
+    };
+
+    public static JsonNode? N(double v) => double.IsFinite(v) ? JsonValue.Create(v) : null;
+}

@@ -1,0 +1,156 @@
+using System.Text;
+using Photometallicity.Calibration;
+using Photometallicity.Errors;
+
+namespace Photometallicity.Tests.Calibration;
+
+public class CalibrationFitterTest
+{
+    [Fact]
+    public void Run_RecoversKnownForwardModelWithinBootstrapErrors()
+    {
+        // Source of truth: the invented model SyntheticStandards.Truth that generated the data.
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 200 }, 1);
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 200));
+        var m = r.Model;
+        Assert.True(r.Degree == 2, $"degree {r.Degree}: CV {string.Join(", ", r.CvScoreByDegree)} +- {string.Join(", ", r.CvScoreErrorByDegree)}");
+        foreach (var (c, f) in new[] { (1.0, -2.0), (1.2, -1.5), (1.4, -1.0), (1.2, -2.0) })
+        {
+            double truth = SyntheticStandards.Truth(c, f);
+            double fit = m.Evaluate(c, f);
+            var ens = m.EnsembleCoefficients.Select(e => m.Basis.Value(e, c, f)).ToArray();
+            double mean = ens.Average(), sd = Math.Sqrt(ens.Sum(v => (v - mean) * (v - mean)) / (ens.Length - 1));
+            Assert.True(Math.Abs(fit - truth) < 3 * sd, $"at ({c}, {f}): fit {fit}, truth {truth}, bootstrap sd {sd}");
+        }
+        Assert.InRange(m.SigmaInt, 0.012, 0.028); // truth 0.02 mag
+        Assert.Equal(200, m.EnsembleSigmaInt.Length);
+        Assert.Equal(200, r.PerStandard.Length);
+        Assert.Equal(+1, r.FehSlopeSign);
+        Assert.Empty(m.Domain.ExcludedColours);
+        // RMS in dex about the spectroscopic values: dominated by the 0.1 dex [Fe/H] errors plus index scatter.
+        Assert.InRange(m.RmsDex, 0.08, 0.3);
+    }
+
+    [Fact]
+    public void Run_LinearTruth_CrossValidationChoosesDegreeOne()
+    {
+        var spec = new SyntheticStandards.Spec { Stars = 150, Model = (c, f) => 0.3 + 0.6 * c + 0.25 * f };
+        var r = CalibrationFitter.Run(SyntheticStandards.Make(spec, 3), SyntheticStandards.Options(bootstrap: 0));
+        Assert.Equal(1, r.Degree);
+        Assert.All(r.CvScoreByDegree.Take(3), s => Assert.True(double.IsFinite(s)));
+        Assert.Contains("degree 1", r.DegreeReason);
+    }
+
+    [Fact]
+    public void Run_InjectedBadStandards_AreRejectedWithReason()
+    {
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 120 }, 5);
+        int[] bad = [3, 40, 77, 101];
+        foreach (int i in bad) st.Index0[i] += i % 2 == 0 ? 0.4 : -0.3; // far beyond 0.03 mag scatter
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 20));
+        foreach (int i in bad)
+        {
+            var v = r.PerStandard[i];
+            Assert.Equal(StandardStatus.RejectedOutlier, v.Status);
+            Assert.Contains("sigma_eff", v.Reason);
+            Assert.True(Math.Abs(v.ResidualSigma) > 3.5);
+        }
+        Assert.True(r.PerStandard.Count(v => !v.Accepted) <= bad.Length + 2);
+        Assert.InRange(r.Model.SigmaInt, 0.01, 0.03); // outliers do not inflate the intrinsic scatter
+        // Domain from accepted standards only: no hull vertex is a rejected standard.
+        var rejectedPoints = bad.Select(i => (st.Colour0[i], st.Feh[i])).ToHashSet();
+        Assert.DoesNotContain(r.Model.Domain.Hull, p => rejectedPoints.Contains(p));
+    }
+
+    [Fact]
+    public void Run_MissingValue_IsReportedUnusable()
+    {
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 60 }, 6);
+        st.Index0[7] = double.NaN;
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0, degree: 1));
+        Assert.Equal(StandardStatus.Unusable, r.PerStandard[7].Status);
+        Assert.Contains("index0", r.PerStandard[7].Reason);
+        Assert.Equal(59, r.Model.StandardsUsed + r.Model.StandardsRejected - 1);
+    }
+
+    [Fact]
+    public void Run_AllOneColour_ThrowsMethodExceptionWithCounts()
+    {
+        var spec = new SyntheticStandards.Spec { Stars = 30, ColourMin = 1.0, ColourMax = 1.02, SigmaColour = 0.001 };
+        var e = Assert.Throws<MethodException>(() => CalibrationFitter.Run(SyntheticStandards.Make(spec, 7), SyntheticStandards.Options(0)));
+        Assert.Contains("all one colour", e.Message);
+        Assert.Contains("30 usable standards", e.Message);
+    }
+
+    [Fact]
+    public void Run_AllOneFeh_ThrowsMethodException()
+    {
+        var spec = new SyntheticStandards.Spec { Stars = 30, FehMin = -1.5, FehMax = -1.5, SigmaFeh = 0.0 };
+        var e = Assert.Throws<MethodException>(() => CalibrationFitter.Run(SyntheticStandards.Make(spec, 8), SyntheticStandards.Options(0)));
+        Assert.Contains("all one [Fe/H]", e.Message);
+    }
+
+    [Fact]
+    public void Run_FewerStandardsThanNeeded_SaysHowManyAreNeeded()
+    {
+        var e = Assert.Throws<MethodException>(() =>
+            CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 4 }, 9), SyntheticStandards.Options(0)));
+        Assert.Contains("4 usable calibration standards", e.Message);
+        Assert.Contains("at least 5", e.Message);
+        // Enough for degree 1 but not for a fixed degree 3 (10 coefficients).
+        var e3 = Assert.Throws<MethodException>(() =>
+            CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 9 }, 9), SyntheticStandards.Options(0, degree: 3)));
+        Assert.Contains("10 coefficients", e3.Message);
+        Assert.Contains("at least 12 needed", e3.Message);
+    }
+
+    [Fact]
+    public void Run_SameSeed_ByteIdenticalJsonWhateverTheThreadCount()
+    {
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 80, Clusters = 3 }, 10);
+        string Json(int? threads)
+        {
+            var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 60) with { MaxThreads = threads });
+            using var ms = new MemoryStream();
+            CalibrationJson.Write(r.Model, r, ms);
+            return Encoding.UTF8.GetString(ms.ToArray());
+        }
+        string one = Json(1), all = Json(null), four = Json(4);
+        Assert.Equal(one, all);
+        Assert.Equal(one, four);
+        Assert.NotEqual(one, Encoding.UTF8.GetString(Serialize(CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 60, seed: 12)))));
+    }
+
+    [Fact]
+    public void Run_LogGCut_RejectsDwarfs()
+    {
+        var st0 = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 50 }, 13);
+        var logg = Enumerable.Repeat(1.5, 50).ToArray();
+        logg[4] = 4.5;
+        var st = new CalibrationStandards
+        {
+            Id = st0.Id, Colour0 = st0.Colour0, Index0 = st0.Index0, VarColour = st0.VarColour, VarIndex = st0.VarIndex,
+            CovIndexColour = st0.CovIndexColour, Feh = st0.Feh, FehErr = st0.FehErr, Group = st0.Group, GroupName = st0.GroupName, LogG = logg,
+        };
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(0, degree: 1) with { MaxLogG = 3.5 });
+        Assert.Equal(StandardStatus.RejectedLogG, r.PerStandard[4].Status);
+        Assert.Contains("log g = 4.5", r.PerStandard[4].Reason);
+    }
+
+    [Fact]
+    public void Validate_NegativeVariance_IsInputErrorNamingStandardAndColumn()
+    {
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 20 }, 14);
+        st.VarIndex[2] = -1e-4;
+        var e = Assert.Throws<InputException>(() => CalibrationFitter.Run(st, SyntheticStandards.Options(0)));
+        Assert.Equal("var_index", e.Column);
+        Assert.Contains("star0002", e.Message);
+    }
+
+    internal static byte[] Serialize(CalibrationResult r)
+    {
+        using var ms = new MemoryStream();
+        CalibrationJson.Write(r.Model, r, ms);
+        return ms.ToArray();
+    }
+}
