@@ -1,14 +1,112 @@
 using System.CommandLine;
+using System.Globalization;
+using System.Text;
+using Photometallicity.Catalogues;
+using Photometallicity.Catalogues.Csv;
+using Photometallicity.CrossMatch;
+using Photometallicity.Errors;
+using Photometallicity.Units;
 
 namespace Photometallicity.Cli.Commands;
 
-/// <summary>The 'match' verb. (Placeholder until its stage lands.)</summary>
+/// <summary>
+/// The 'match' verb: sky cross-match of a broadband (LEFT) and a narrow-band (RIGHT) table. Every LEFT row is
+/// written once, in input order, with the LEFT columns, the prefixed RIGHT columns of its partner (empty when
+/// none), sep_arcsec and match_flag (0 none, 1 matched, 2 matched and possible blend).
+/// </summary>
 internal static class MatchCommand
 {
     public static Command Create(CliContext ctx)
     {
-        var cmd = new Command("match", "(not implemented yet)");
-        cmd.SetAction(_ => CommandRunner.Execute(ctx, () => throw new NotImplementedException("'match' is not implemented yet")));
+        var leftArg = new Argument<string>("LEFT") { Description = $"Broadband table, every row of which is written once ({TableFormats.Known})." };
+        var rightArg = new Argument<string>("RIGHT") { Description = $"Narrow-band table whose rows are paired with LEFT rows, each at most once ({TableFormats.Known})." };
+        var radius = new Option<string>("--radius")
+        {
+            Description = "Match radius in arcsec (for example 1.0), or 'auto' to choose it from the separation distribution after the offset correction (the result says what it chose and why).",
+            Required = true,
+        };
+        var output = new Option<string?>("--out") { Description = $"Output table; its extension picks the format ({TableFormats.Known}). Default: CSV on standard output." };
+        var leftRa = new Option<string>("--left-ra") { Description = "LEFT column with right ascension in degrees (ICRS).", DefaultValueFactory = _ => "ra" };
+        var leftDec = new Option<string>("--left-dec") { Description = "LEFT column with declination in degrees (ICRS).", DefaultValueFactory = _ => "dec" };
+        var rightRa = new Option<string>("--right-ra") { Description = "RIGHT column with right ascension in degrees (ICRS).", DefaultValueFactory = _ => "ra" };
+        var rightDec = new Option<string>("--right-dec") { Description = "RIGHT column with declination in degrees (ICRS).", DefaultValueFactory = _ => "dec" };
+        var prefix = new Option<string>("--right-prefix") { Description = "Prefix put before every RIGHT column name in the output.", DefaultValueFactory = _ => "r_" };
+        var noOffset = new Option<bool>("--no-offset") { Description = "Do not solve or apply the astrometric offset (narrow-band minus broadband, arcsec); match the positions as given." };
+        var rotation = new Option<bool>("--solve-rotation") { Description = "Also solve a small rotation (arcsec) and scale of RIGHT relative to LEFT, besides the offset." };
+        var cmd = new Command("match", "Cross-match a broadband (LEFT) and a narrow-band (RIGHT) table on the sky, one-to-one, after solving their astrometric offset. "
+                                       + "Output: every LEFT row once, in input order; LEFT columns, prefixed RIGHT columns of the partner, sep_arcsec (arcsec) and "
+                                       + "match_flag (0 no partner, 1 matched, 2 matched and possible blend: another RIGHT source inside the radius). "
+                                       + "A summary (matched count, offset, radius and why, false-match rates) goes to standard error.")
+        {
+            leftArg, rightArg, radius, output, leftRa, leftDec, rightRa, rightDec, prefix, noOffset, rotation,
+        };
+        cmd.SetAction(pr => CommandRunner.Execute(ctx, () =>
+        {
+            string leftPath = pr.GetValue(leftArg)!, rightPath = pr.GetValue(rightArg)!;
+            string? outPath = pr.GetValue(output);
+            if (outPath is not null) TableFormats.FromPath(outPath);
+            var options = ParseRadius(pr.GetValue(radius)!) with
+            {
+                SolveOffset = !pr.GetValue(noOffset),
+                SolveRotationScale = pr.GetValue(rotation),
+            };
+            var left = CatalogueIO.Read(leftPath);
+            var right = CatalogueIO.Read(rightPath);
+            var (lra, ldec) = Positions(left, leftPath, pr.GetValue(leftRa)!, pr.GetValue(leftDec)!);
+            var (rra, rdec) = Positions(right, rightPath, pr.GetValue(rightRa)!, pr.GetValue(rightDec)!);
+            var result = CrossMatcher.Run(lra, ldec, rra, rdec, options, ctx.Logger("match"));
+            var table = MatchedTable.Join(left, right, result, pr.GetValue(prefix)!);
+            if (outPath is null)
+            {
+                using var ms = new MemoryStream();
+                CsvTableWriter.Write(table, ms);
+                ctx.Out.Write(Encoding.UTF8.GetString(ms.ToArray()));
+            }
+            else
+            {
+                CatalogueIO.Write(table, outPath);
+            }
+            WriteSummary(ctx.Error, result, outPath);
+            return 0;
+        }));
         return cmd;
+    }
+
+    internal static CrossMatchOptions ParseRadius(string text)
+    {
+        if (string.Equals(text.Trim(), "auto", StringComparison.OrdinalIgnoreCase))
+            return new CrossMatchOptions { AutoRadius = true, Radius = Angle.FromArcseconds(1.0) };
+        if (!double.TryParse(text, NumberStyles.Float, CultureInfo.InvariantCulture, out double r) || !double.IsFinite(r) || r <= 0 || r > 36000)
+            throw new InputException($"--radius: expected a radius in arcsec in (0, 36000] or 'auto', got '{text}'");
+        return new CrossMatchOptions { Radius = Angle.FromArcseconds(r) };
+    }
+
+    /// <summary>RA and Dec as doubles, with every missing or out-of-range value reported by file, row and column.</summary>
+    internal static (double[] Ra, double[] Dec) Positions(Table table, string path, string raName, string decName)
+    {
+        var ra = table.RequireDoubles(raName);
+        var dec = table.RequireDoubles(decName);
+        for (int i = 0; i < ra.Length; i++)
+        {
+            if (!double.IsFinite(ra[i]))
+                throw new InputException($"right ascension is missing or not a number ('{table[raName].GetString(i) ?? ""}'); every row needs a position", path, i + 1, raName);
+            if (ra[i] < -360.0 || ra[i] > 720.0)
+                throw new InputException($"right ascension {ra[i].ToString(CultureInfo.InvariantCulture)} deg is out of range (expected degrees, normally in [0, 360])", path, i + 1, raName);
+            if (!double.IsFinite(dec[i]))
+                throw new InputException($"declination is missing or not a number ('{table[decName].GetString(i) ?? ""}'); every row needs a position", path, i + 1, decName);
+            if (dec[i] < -90.0 || dec[i] > 90.0)
+                throw new InputException($"declination {dec[i].ToString(CultureInfo.InvariantCulture)} deg is outside [-90, 90]", path, i + 1, decName);
+        }
+        return (ra, dec);
+    }
+
+    private static void WriteSummary(TextWriter w, CrossMatchResult r, string? outPath)
+    {
+        var inv = CultureInfo.InvariantCulture;
+        w.WriteLine(string.Create(inv, $"match: {r.Matched} of {r.LeftCount} LEFT rows matched ({100.0 * r.Matched / Math.Max(1, r.LeftCount):0.0}%) to {r.RightCount} RIGHT rows; {r.BlendCount} possible blends (match_flag 2), {r.LostContention} lost their candidates to closer pairs"));
+        w.WriteLine($"match: {r.OffsetReason}");
+        w.WriteLine(string.Create(inv, $"match: radius {r.RadiusUsed.Arcseconds:0.###} arcsec ({r.RadiusReason})"));
+        w.WriteLine(string.Create(inv, $"match: false-match rate expected {r.ExpectedFalseMatchRate:0.0000} (local density), measured {r.MeasuredFalseMatchRate:0.0000} +/- {r.MeasuredFalseMatchRateError:0.0000} (shifted positions)"));
+        if (outPath is not null) w.WriteLine($"wrote {outPath}: {r.LeftCount} rows");
     }
 }

@@ -27,6 +27,7 @@ public sealed class CandidatePairs
     {
         int n = left.Count;
         int chunks = Chunks.Count(n);
+        var order = left.Order;
         var counts = new int[n];
         var chunkRight = new int[chunks][];
         var chunkChord = new double[chunks][];
@@ -34,8 +35,9 @@ public sealed class CandidatePairs
         {
             var idx = new List<int>(hi - lo);
             var d2 = new List<double>(hi - lo);
-            for (int i = lo; i < hi; i++)
+            for (int k = lo; k < hi; k++)
             {
+                int i = order[k];
                 int before = idx.Count;
                 tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], maxChord2, idx, d2);
                 counts[i] = idx.Count - before;
@@ -47,13 +49,21 @@ public sealed class CandidatePairs
         for (int i = 0; i < n; i++) start[i + 1] = start[i] + counts[i];
         var right = new int[start[n]];
         var chord = new double[start[n]];
-        int at = 0;
-        for (int c = 0; c < chunks; c++)
+        // Scatter each chunk's candidates to their left rows (disjoint destinations, so chunks run in parallel).
+        Chunks.For(n, (c, lo, hi) =>
         {
-            Array.Copy(chunkRight[c], 0, right, at, chunkRight[c].Length);
-            Array.Copy(chunkChord[c], 0, chord, at, chunkChord[c].Length);
-            at += chunkRight[c].Length;
-        }
+            int at = 0;
+            var cr = chunkRight[c];
+            var cc = chunkChord[c];
+            for (int k = lo; k < hi; k++)
+            {
+                int i = order[k];
+                int m = counts[i];
+                Array.Copy(cr, at, right, start[i], m);
+                Array.Copy(cc, at, chord, start[i], m);
+                at += m;
+            }
+        });
         return new CandidatePairs(start, right, chord);
     }
 

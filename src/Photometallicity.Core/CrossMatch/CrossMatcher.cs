@@ -32,7 +32,7 @@ public static class CrossMatcher
         var plane = TangentPlane.AboutMean(left);
 
         Angle radius = options.AutoRadius && options.Radius.Radians <= 0 ? Angle.FromArcseconds(1.0) : options.Radius;
-        string radiusReason = $"{radius.Arcseconds:0.###} arcsec as given";
+        string radiusReason = options.AutoRadius ? "" : "fixed by the caller, not chosen from the data";
         var transform = AstrometricTransform.Identity;
         OffsetSolver.Outcome? outcome = null;
         string offsetReason;
@@ -46,9 +46,11 @@ public static class CrossMatcher
         else if (!canSolve) offsetReason = $"offset not solved: the left catalogue spans more than {MaxFieldRadiusDeg} deg from its centre, too wide for one tangent plane";
         else offsetReason = "";
 
+        logger?.LogDebug("crossmatch: unit vectors {Ms}", Elapsed(clock));
         if (canSolve)
         {
             rawTree = SkyKdTree.Build(rightRaw);
+            logger?.LogDebug("crossmatch: tree of the right catalogue {Ms}", Elapsed(clock));
             var (lXi, lEta) = plane!.ProjectAll(left);
             var (rXi, rEta) = plane.ProjectAll(rightRaw);
             var solver = new OffsetSolver(plane, rawTree, left, lXi, lEta, rXi, rEta);
@@ -56,6 +58,7 @@ public static class CrossMatcher
             var start = solver.InitialEstimate(search);
             logger?.LogDebug("crossmatch: first offset estimate {Est} from the pair-offset histogram within {Search:0.##} arcsec",
                 start is { } s0 ? $"{s0.DXi * RadToArcsec:+0.000;-0.000}, {s0.DEta * RadToArcsec:+0.000;-0.000} arcsec" : "none (no peak)", search * RadToArcsec);
+            logger?.LogDebug("crossmatch: first estimate done {Ms}", Elapsed(clock));
             double fieldRad = plane.RadiusDeg * Math.PI / 180.0;
             outcome = solver.Iterate(start ?? AstrometricTransform.Identity, radius.Radians, options.MaxIterations,
                 options.SolveRotationScale, options.ConvergenceTolerance.Radians, options.MinSecurePairs, fieldRad);
@@ -81,7 +84,9 @@ public static class CrossMatcher
             }
         }
 
+        logger?.LogDebug("crossmatch: offset iterations done {Ms}", Elapsed(clock));
         var tree = ReferenceEquals(right, rightRaw) && rawTree is not null ? rawTree : SkyKdTree.Build(right);
+        logger?.LogDebug("crossmatch: tree of the corrected catalogue {Ms}", Elapsed(clock));
         if (options.AutoRadius && outcome is null)
         {
             var choice = ChooseRadius(tree, left, radius);
@@ -110,6 +115,7 @@ public static class CrossMatcher
             matched++;
             if (blend[i]) blends++;
         }
+        logger?.LogDebug("crossmatch: one-to-one match done {Ms}", Elapsed(clock));
         double expected = FalseMatchRate.Expected(tree, left, radius);
         var measured = FalseMatchRate.Measured(tree, left, radius);
 
@@ -160,6 +166,9 @@ public static class CrossMatcher
             matched, nLeft, blends, lost, expected, measured.Rate, measured.Error, clock.ElapsedMilliseconds);
         return result;
     }
+
+    private static string Elapsed(Stopwatch clock) =>
+        $"{clock.ElapsedMilliseconds} ms wall, {System.Diagnostics.Process.GetCurrentProcess().TotalProcessorTime.TotalMilliseconds:0} ms process CPU";
 
     private static AutoRadiusChoice ChooseRadius(SkyKdTree tree, UnitVectors queries, Angle guess)
     {

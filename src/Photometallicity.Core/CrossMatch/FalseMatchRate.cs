@@ -20,8 +20,8 @@ public static class FalseMatchRate
     public const double AnnulusInner = 3.0;
     public const double AnnulusOuter = 10.0;
     public const double ShiftRadii = 8.0;
-    private const int ExpectedSample = 100_000;
-    private const int MeasuredSample = 100_000;
+    private const int ExpectedSample = 50_000;
+    private const int MeasuredSample = 50_000;
 
     /// <summary>P = 1 - exp(-pi rho r^2) with rho in sources per square arcminute.</summary>
     public static double ChanceProbability(double densityPerSqArcmin, Angle radius)
@@ -38,7 +38,7 @@ public static class FalseMatchRate
         // Area of a spherical cap of angular radius t: 2 pi (1 - cos t) = pi chord^2, in square arcmin.
         const double sqArcminPerSr = (180.0 * 60.0 / Math.PI) * (180.0 * 60.0 / Math.PI);
         double annulusSqArcmin = Math.PI * (outer * outer - inner * inner) * sqArcminPerSr;
-        var rows = Sample(left.Count, ExpectedSample);
+        var rows = Sample(left.Order, ExpectedSample);
         var p = new double[rows.Length];
         Chunks.For(rows.Length, (_, lo, hi) =>
         {
@@ -60,7 +60,7 @@ public static class FalseMatchRate
     {
         double r2 = SkySeparation.Chord(radius) * SkySeparation.Chord(radius);
         var (ss, cs) = Math.SinCos(Math.Min(radius.Radians * ShiftRadii, 0.5));
-        var rows = Sample(left.Count, MeasuredSample);
+        var rows = Sample(left.Order, MeasuredSample);
         var hits = new int[rows.Length];
         Chunks.For(rows.Length, (_, lo, hi) =>
         {
@@ -92,12 +92,13 @@ public static class FalseMatchRate
         return (rate, Math.Sqrt(rate * (1 - rate) / trials), trials);
     }
 
-    /// <summary>Every row when n is at most max, otherwise every (n / max)-th row.</summary>
-    internal static int[] Sample(int n, int max)
+    /// <summary>Every row when there are at most max, otherwise every k-th row along the spatial order (an even spread over the field).</summary>
+    internal static int[] Sample(int[] order, int max)
     {
+        int n = order.Length;
         int stride = Math.Max(1, (n + max - 1) / max);
         var rows = new int[(n + stride - 1) / stride];
-        for (int k = 0; k < rows.Length; k++) rows[k] = k * stride;
+        for (int k = 0; k < rows.Length; k++) rows[k] = order[k * stride];
         return rows;
     }
 }

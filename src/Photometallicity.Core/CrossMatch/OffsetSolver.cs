@@ -13,6 +13,8 @@ namespace Photometallicity.CrossMatch;
 internal sealed class OffsetSolver
 {
     private const int HistogramHalf = 30;
+    // The first estimate needs only the peak of the offset distribution: 200 000 rows are plenty (program's choice).
+    private const int HistogramRows = 200_000;
     private readonly TangentPlane _plane;
     private readonly SkyKdTree _rightTree;
     private readonly UnitVectors _left;
@@ -37,7 +39,7 @@ internal sealed class OffsetSolver
     public AstrometricTransform? InitialEstimate(double searchRadiusRad)
     {
         double bin = searchRadiusRad / HistogramHalf;
-        var h = PairHistograms.Offsets(_rightTree, _left, _lXi, _lEta, _rXi, _rEta, searchRadiusRad, bin, HistogramHalf);
+        var h = PairHistograms.Offsets(_rightTree, _left, _lXi, _lEta, _rXi, _rEta, searchRadiusRad, bin, HistogramHalf, HistogramRows);
         int side = 2 * HistogramHalf + 1;
         // Background: median count of the bins well inside the search circle.
         var inside = new List<long>();
@@ -138,7 +140,7 @@ internal sealed class OffsetSolver
                 (x[i], y[i], z[i]) = _plane.Deproject(xi, eta);
             }
         });
-        return new UnitVectors(x, y, z);
+        return new UnitVectors(x, y, z).WithOrderOf(_left);
     }
 
     /// <summary>The right catalogue corrected into the left frame (rows the plane cannot hold are left as observed).</summary>

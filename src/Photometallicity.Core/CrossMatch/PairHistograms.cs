@@ -14,13 +14,15 @@ internal static class PairHistograms
         double chord = 2.0 * Math.Sin(0.5 * maxArcsec / RadToArcsec);
         double width = maxArcsec / bins;
         var perChunk = new long[Chunks.Count(queries.Count)][];
+        var order = queries.Order;
         Chunks.For(queries.Count, (c, lo, hi) =>
         {
             var h = new long[bins];
             var idx = new List<int>();
             var d2 = new List<double>();
-            for (int i = lo; i < hi; i++)
+            for (int k = lo; k < hi; k++)
             {
+                int i = order[k];
                 idx.Clear();
                 d2.Clear();
                 tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, idx, d2);
@@ -41,20 +43,23 @@ internal static class PairHistograms
     /// <summary>
     /// 2-D histogram of the pair offsets (right minus left, tangent-plane radians) of all pairs within
     /// <paramref name="radiusRad"/>, in (2 half + 1)^2 square bins of side <paramref name="binRad"/> centred on zero.
+    /// At most <paramref name="maxRows"/> left rows are used, evenly spread along the spatial order.
     /// </summary>
     public static long[,] Offsets(SkyKdTree tree, UnitVectors left, double[] lXi, double[] lEta, double[] rXi, double[] rEta,
-        double radiusRad, double binRad, int half)
+        double radiusRad, double binRad, int half, int maxRows)
     {
         double chord = 2.0 * Math.Sin(0.5 * radiusRad);
         int side = 2 * half + 1;
-        var perChunk = new long[Chunks.Count(left.Count)][];
-        Chunks.For(left.Count, (c, lo, hi) =>
+        var order = FalseMatchRate.Sample(left.Order, maxRows);
+        var perChunk = new long[Chunks.Count(order.Length)][];
+        Chunks.For(order.Length, (c, lo, hi) =>
         {
             var h = new long[side * side];
             var idx = new List<int>();
             var d2 = new List<double>();
-            for (int i = lo; i < hi; i++)
+            for (int k = lo; k < hi; k++)
             {
+                int i = order[k];
                 idx.Clear();
                 d2.Clear();
                 tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, idx, d2);

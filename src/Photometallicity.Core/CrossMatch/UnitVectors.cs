@@ -19,6 +19,18 @@ public sealed class UnitVectors
     public double[] Z { get; }
     public int Count => X.Length;
 
+    private int[]? _order;
+
+    /// <summary>A visiting order that keeps sky neighbours together (see <see cref="SpatialOrder"/>), computed once.</summary>
+    public int[] Order => _order ??= SpatialOrder.Of(this);
+
+    /// <summary>These vectors with the visiting order of <paramref name="like"/> (for slightly moved copies of the same points).</summary>
+    public UnitVectors WithOrderOf(UnitVectors like)
+    {
+        _order = like.Order;
+        return this;
+    }
+
     /// <summary>Unit vectors of positions in degrees (computed in parallel over fixed chunks).</summary>
     public static UnitVectors FromDegrees(ReadOnlySpan<double> raDeg, ReadOnlySpan<double> decDeg)
     {
