@@ -9,7 +9,7 @@ namespace Photometallicity.Benchmarks;
 /// <summary>
 /// [Fe/H] assignment of 10^6 synthetic red giants (invented model and field) with a 500-member ensemble.
 /// Band errors follow <see cref="PhotometricErrorModel"/> for invented depths (blue 25.5, red 25.0, narrow 24.0 mag at 5 sigma,
-/// floor 0.005), blue magnitudes uniform in 19-23.5 mag. Args: [stars] [members] [threads].
+/// floor 0.005), blue magnitudes uniform in 19-23.5 mag. Args: [stars] [members] [threads] [points per sigma] [max stride].
 /// </summary>
 internal static class MetallicityBenchmark
 {
@@ -19,11 +19,13 @@ internal static class MetallicityBenchmark
         int n = args.Length > 0 ? int.Parse(args[0]) : 1_000_000;
         int members = args.Length > 1 ? int.Parse(args[1]) : 500;
         int threads = args.Length > 2 ? int.Parse(args[2]) : -1;
+        double pps = args.Length > 3 ? double.Parse(args[3], System.Globalization.CultureInfo.InvariantCulture) : new MetallicityOptions().PointsPerSigma;
+        int maxStride = args.Length > 4 ? int.Parse(args[4]) : new MetallicityOptions().MaxEvaluationStride;
         var model = BuildModel(members);
         var phot = Stars(n, model);
 
         var clock = Stopwatch.StartNew();
-        var assigner = new MetallicityAssigner(model, new MetallicityOptions { MaxDegreeOfParallelism = threads });
+        var assigner = new MetallicityAssigner(model, new MetallicityOptions { MaxDegreeOfParallelism = threads, PointsPerSigma = pps, MaxEvaluationStride = maxStride });
         double setup = clock.Elapsed.TotalSeconds;
         var r = assigner.Run(phot);
         double total = clock.Elapsed.TotalSeconds;
