@@ -157,7 +157,7 @@ public static class DemoGenerator
             double z = (fehTrue[i] + 1.65) / 0.38;
             double w = Math.Min(1.0, 0.05 * Math.Exp(0.5 * z * z));
             if (rng.NextDouble() < w) picked.Add(i);
-            if (picked.Count >= 140) break;
+            if (picked.Count >= 150) break;
         }
         var dwarfs = Enumerable.Range(0, id.Length).Where(i => !member[i] && blue[i] < 21.5 && colour[i] > 0.75 && colour[i] < 1.1).Take(3).ToList();
         var rows = new List<(string Id, double Ra, double Dec, double Feh, double Err, string Note)>();
