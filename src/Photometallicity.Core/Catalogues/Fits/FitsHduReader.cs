@@ -25,7 +25,10 @@ internal static class FitsHduReader
     /// <summary>A header longer than this (8 MB of cards) without an END card is taken as a damaged file.</summary>
     public const int MaxCards = 100_000;
 
-    /// <summary>Reads the header starting at <paramref name="start"/>; null when the file ends exactly there.</summary>
+    /// <summary>
+    /// Reads the header starting at <paramref name="start"/>; null when the file ends there or what follows is not an
+    /// extension (a block not starting with XTENSION).
+    /// </summary>
     public static FitsHdu? ReadAt(Stream stream, long start, int hduIndex, string file)
     {
         long length = stream.Length;
@@ -46,6 +49,8 @@ internal static class FitsHduReader
             position += n;
             string chunk = Encoding.Latin1.GetString(block);
             if (hduIndex == 0 && cards == 0) CheckSimple(block, file);
+            // After the last HDU a file may hold other records (sect. 3.5); anything not starting with XTENSION ends the walk.
+            if (hduIndex > 0 && cards == 0 && !chunk.StartsWith("XTENSION", StringComparison.Ordinal)) return null;
             for (int c = 0; c < 36; c++)
             {
                 if (string.CompareOrdinal(chunk, c * 80, "END     ", 0, 8) == 0 && chunk.AsSpan(c * 80 + 8, 72).Trim(' ').IsEmpty)

@@ -44,7 +44,7 @@ internal static class FitsHeaderBuilder
             string n = (i + 1).ToString(CultureInfo.InvariantCulture);
             if (!FitsKeywords.IsPrintableAscii(c.Name))
                 throw new InputException(string.Format(CultureInfo.InvariantCulture, FitsMessages.NameNotAscii, c.Name), table.Source, column: c.Name);
-            w.String("TTYPE" + n, c.Name);
+            w.String("TTYPE" + n, c.Name, c.Description);
             w.String("TFORM" + n, e.Tform);
             if (!string.IsNullOrEmpty(c.Unit))
             {
@@ -53,6 +53,8 @@ internal static class FitsHeaderBuilder
                 w.String("TUNIT" + n, c.Unit);
             }
             if (e.Null is long tnull) w.Integer("TNULL" + n, tnull, "value of a missing entry");
+            // TCOMMn is not defined by FITS Standard 4.0: it is a keyword some table tools use for a column description.
+            // Readers that do not know it keep it as a plain keyword; the TTYPEn comment carries the same text (cut to fit).
             if (!string.IsNullOrEmpty(c.Description)) w.String("TCOMM" + n, c.Description);
         }
         w.String("EXTNAME", extensionName, "name of this table");

@@ -110,6 +110,13 @@ public class FitsHostileInputTest : IDisposable
     }
 
     [Fact]
+    public void Read_TrailingRecordsAfterLastHdu_EndTheWalk()
+    {
+        var e = Fails(new FitsBytes().Header(FitsBytes.EmptyPrimary()).Data(new byte[2880]));
+        Assert.Equal($"{Path}: no BINTABLE extension in the file; the HDUs found are: 0 primary", e.Message);
+    }
+
+    [Fact]
     public void Read_UnknownExtension_ListsExtnames()
     {
         var file = new FitsBytes().Header(FitsBytes.EmptyPrimary())
