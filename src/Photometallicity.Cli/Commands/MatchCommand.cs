@@ -52,9 +52,10 @@ internal static class MatchCommand
             };
             var left = CatalogueIO.Read(leftPath);
             var right = CatalogueIO.Read(rightPath);
-            var (lra, ldec) = Positions(left, leftPath, pr.GetValue(leftRa)!, pr.GetValue(leftDec)!);
-            var (rra, rdec) = Positions(right, rightPath, pr.GetValue(rightRa)!, pr.GetValue(rightDec)!);
-            var result = CrossMatcher.Run(lra, ldec, rra, rdec, options, ctx.Logger("match"));
+            var (lra, ldec) = Positions(left, pr.GetValue(leftRa)!, pr.GetValue(leftDec)!);
+            var (rra, rdec) = Positions(right, pr.GetValue(rightRa)!, pr.GetValue(rightDec)!);
+            // The stage's own information lines repeat the summary below; keep only its warnings.
+            var result = CrossMatcher.Run(lra, ldec, rra, rdec, options, new WarningsOnly(ctx.Logger("match")));
             var table = MatchedTable.Join(left, right, result, pr.GetValue(prefix)!);
             if (outPath is null)
             {
@@ -81,23 +82,11 @@ internal static class MatchCommand
         return new CrossMatchOptions { Radius = Angle.FromArcseconds(r) };
     }
 
-    /// <summary>RA and Dec as doubles, with every missing or out-of-range value reported by file, row and column.</summary>
-    internal static (double[] Ra, double[] Dec) Positions(Table table, string path, string raName, string decName)
+    /// <summary>RA and Dec as doubles, after the catalogue layer's checks (file, row, column and value on failure).</summary>
+    internal static (double[] Ra, double[] Dec) Positions(Table table, string raName, string decName)
     {
-        var ra = table.RequireDoubles(raName);
-        var dec = table.RequireDoubles(decName);
-        for (int i = 0; i < ra.Length; i++)
-        {
-            if (!double.IsFinite(ra[i]))
-                throw new InputException($"right ascension is missing or not a number ('{table[raName].GetString(i) ?? ""}'); every row needs a position", path, i + 1, raName);
-            if (ra[i] < -360.0 || ra[i] > 720.0)
-                throw new InputException($"right ascension {ra[i].ToString(CultureInfo.InvariantCulture)} deg is out of range (expected degrees, normally in [0, 360])", path, i + 1, raName);
-            if (!double.IsFinite(dec[i]))
-                throw new InputException($"declination is missing or not a number ('{table[decName].GetString(i) ?? ""}'); every row needs a position", path, i + 1, decName);
-            if (dec[i] < -90.0 || dec[i] > 90.0)
-                throw new InputException($"declination {dec[i].ToString(CultureInfo.InvariantCulture)} deg is outside [-90, 90]", path, i + 1, decName);
-        }
-        return (ra, dec);
+        PositionValidation.Validate(table, raName, decName, idColumn: null);
+        return (PositionValidation.RequireNumeric(table, raName), PositionValidation.RequireNumeric(table, decName));
     }
 
     private static void WriteSummary(TextWriter w, CrossMatchResult r, string? outPath)
@@ -108,5 +97,18 @@ internal static class MatchCommand
         w.WriteLine(string.Create(inv, $"match: radius {r.RadiusUsed.Arcseconds:0.###} arcsec ({r.RadiusReason})"));
         w.WriteLine(string.Create(inv, $"match: false-match rate expected {r.ExpectedFalseMatchRate:0.0000} (local density), measured {r.MeasuredFalseMatchRate:0.0000} +/- {r.MeasuredFalseMatchRateError:0.0000} (shifted positions)"));
         if (outPath is not null) w.WriteLine($"wrote {outPath}: {r.LeftCount} rows");
+    }
+
+    private sealed class WarningsOnly(Microsoft.Extensions.Logging.ILogger inner) : Microsoft.Extensions.Logging.ILogger
+    {
+        public IDisposable? BeginScope<TState>(TState state) where TState : notnull => inner.BeginScope(state);
+
+        public bool IsEnabled(Microsoft.Extensions.Logging.LogLevel logLevel) =>
+            (logLevel >= Microsoft.Extensions.Logging.LogLevel.Warning || logLevel == Microsoft.Extensions.Logging.LogLevel.Debug) && inner.IsEnabled(logLevel);
+
+        public void Log<TState>(Microsoft.Extensions.Logging.LogLevel logLevel, Microsoft.Extensions.Logging.EventId eventId, TState state, Exception? exception, Func<TState, Exception?, string> formatter)
+        {
+            if (IsEnabled(logLevel)) inner.Log(logLevel, eventId, state, exception, formatter);
+        }
     }
 }

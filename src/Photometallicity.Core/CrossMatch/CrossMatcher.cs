@@ -127,7 +127,7 @@ public static class CrossMatcher
         bool rotScale = solved && options.SolveRotationScale && (transform.A != 1.0 || transform.B != 0.0);
         if (solved)
         {
-            offsetReason = $"offset {offset.Item1:+0.000;-0.000} +/- {offErr.Item1:0.000}, {offset.Item2:+0.000;-0.000} +/- {offErr.Item2:0.000} arcsec "
+            offsetReason = $"offset {offset.Item1:+0.0000;-0.0000} +/- {offErr.Item1:0.0000}, {offset.Item2:+0.0000;-0.0000} +/- {offErr.Item2:0.0000} arcsec "
                            + $"from {fit!.Used} secure pairs ({fit.Clipped} clipped) after {iterations} iterations"
                            + (outcome!.Converged ? "" : " (not converged)")
                            + (rotScale ? $"; rotation {transform.RotationRadians * RadToArcsec:+0.000;-0.000} arcsec, scale {transform.Scale:0.0000000}" : "");
