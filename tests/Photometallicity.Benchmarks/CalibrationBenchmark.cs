@@ -20,10 +20,12 @@ internal static class CalibrationBenchmark
         var filters = new FilterSet("invented-system", "b_inv", "r_inv", "hk_inv", 1.1, 3.0, 1.5, 4.0);
         var opt = new CalibrationOptions { Bootstrap = b, Seed = 5, Filters = filters, MaxThreads = threads };
         CalibrationFitter.Run(Make(60, 1), opt with { Bootstrap = 20 }); // warm-up (JIT)
+        var cpu0 = Process.GetCurrentProcess().TotalProcessorTime;
         var sw = Stopwatch.StartNew();
         var r = CalibrationFitter.Run(st, opt);
         sw.Stop();
-        Console.WriteLine($"calibration: {n} standards, B = {b}, threads = {(threads?.ToString() ?? "all")} ({Environment.ProcessorCount} cores): {sw.Elapsed.TotalSeconds:F2} s");
+        var cpu = Process.GetCurrentProcess().TotalProcessorTime - cpu0;
+        Console.WriteLine($"calibration: {n} standards, B = {b}, threads = {(threads?.ToString() ?? "all")} ({Environment.ProcessorCount} cores): {sw.Elapsed.TotalSeconds:F2} s wall, {cpu.TotalSeconds:F2} s CPU");
         Console.WriteLine($"  degree {r.Degree}, accepted {r.Model.StandardsUsed}, rejected {r.Model.StandardsRejected}, sigma_int {r.Model.SigmaInt:F4} mag, rms {r.Model.RmsDex:F3} dex, redrawn {r.BootstrapRedrawn}");
     }
 
