@@ -72,10 +72,6 @@ internal static class FigureStyle
         note.LabelFontColor = Colors.Black.WithAlpha(0.75);
     }
 
-    /// <summary>A number in invariant culture with a typographic minus sign (U+2212).</summary>
-    public static string Num(double value, string format) =>
-        value.ToString(format, System.Globalization.CultureInfo.InvariantCulture).Replace('-', '−');
-
     /// <summary>Axis limits [min, max] of the finite values, padded by a fraction of the range.</summary>
     public static (double Min, double Max) PaddedRange(IEnumerable<double> values, double padFraction = 0.04)
     {

@@ -2,7 +2,7 @@ using System.Globalization;
 
 namespace Photometallicity.Reporting;
 
-/// <summary>Text for numbers of the summary page (invariant culture, typographic minus sign).</summary>
+/// <summary>Text for numbers on figures and the summary page (invariant culture, typographic minus sign U+2212).</summary>
 internal static class ValueFormat
 {
     /// <summary>The value and uncertainty as strings; see <see cref="KeyNumber"/> for the rounding.</summary>
