@@ -150,12 +150,12 @@ public static class DemoGenerator
     {
         // An invented spectroscopic survey: bright member giants, chosen to spread over [Fe/H] (weights ~ 1/density),
         // plus a few bad standards (binaries, bad spectra: wrong [Fe/H]; foreground dwarfs mistaken for members).
-        var bright = Enumerable.Range(0, id.Length).Where(i => member[i] && blue[i] < 22.4).ToArray();
+        var bright = Enumerable.Range(0, id.Length).Where(i => member[i] && blue[i] < 22.2).ToArray();
         var picked = new List<int>();
         foreach (int i in bright)
         {
             double z = (fehTrue[i] + 1.65) / 0.38;
-            double w = Math.Min(1.0, 0.05 * Math.Exp(0.5 * z * z));
+            double w = Math.Min(1.0, 0.12 * Math.Exp(0.5 * z * z));
             if (rng.NextDouble() < w) picked.Add(i);
             if (picked.Count >= 150) break;
         }
@@ -164,7 +164,7 @@ public static class DemoGenerator
         int bad = 0;
         foreach (int i in picked)
         {
-            double err = 0.08 + 0.10 * rng.NextDouble();
+            double err = 0.05 + 0.07 * rng.NextDouble();
             double feh = fehTrue[i] + rng.NextGaussian(0, err);
             string note = "ok";
             if (bad < 6 && rng.NextDouble() < 0.06)
