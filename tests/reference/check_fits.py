@@ -61,7 +61,7 @@ def source_table():
 
 
 # The project's documented mapping of astropy dtypes after a FITS -> FITS round trip: native types stay the same;
-# unsigned integers (TZERO convention, FITS Standard 4.0 Table 19) come back as the next wider signed type.
+# unsigned integers (TZERO convention, FITS Standard 4.0, sect. 7.3.2) come back as the next wider signed type.
 EXPECTED_DTYPE = {"uint16": "int32", "uint32": "int64"}
 
 

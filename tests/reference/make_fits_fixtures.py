@@ -7,7 +7,7 @@ All values are invented test numbers. The astropy version is recorded in every t
 and in the sidecar (expected.json).
 
 expected_type is the column type the project's reader must produce, following FITS Standard 4.0
-(IAU FITS Working Group 2018), sect. 7.3.2, Table 19: unsigned integers written with the TZERO convention map to
+(IAU FITS Working Group 2018), sect. 7.3.2 (table "Usage of TZEROn to represent non-default integer data types"): unsigned integers written with the TZERO convention map to
 the next wider signed type (uint16 -> Int32, uint32 -> Int64, uint64 -> Int64 when the values fit), B with
 TZERO = -128 is a signed byte (-> Int16), other TSCAL/TZERO scaling gives Double.
 """
@@ -155,7 +155,7 @@ def main():
     cases = [
         describe("types.fits", 1),
         describe("masked.fits", 1),
-        # astropy reads the signed-byte convention as float64; the standard's Table 19 makes it an 8-bit signed integer.
+        # astropy reads the signed-byte convention as float64; the standard's TZEROn table (sect. 7.3.2) makes it an 8-bit signed integer.
         describe("scaled.fits", 1, {"sbyte": "Int16", "scaled": "Double"}),
         describe("two_extensions.fits", "STARS"),
         describe("two_extensions.fits", "STANDARDS"),

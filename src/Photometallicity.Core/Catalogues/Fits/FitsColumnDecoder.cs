@@ -92,14 +92,14 @@ internal sealed class FitsColumnDecoder
     }
 
     /// <summary>
-    /// Character field (sect. 7.3.3.1): the text ends at the first NUL; trailing spaces are not significant.
-    /// A field of only NUL bytes is read as missing (this is how <see cref="FitsTableWriter"/> writes a missing
-    /// string), so an empty string padded with NULs by another writer is read as missing too.
+    /// Character field (FITS Standard 4.0, sect. 7.3.3.1): the text ends at the first NUL, and a field whose first byte is
+    /// NUL is a null string, read as missing (the writer writes a missing string as all NUL bytes). An empty string
+    /// padded with NULs by another writer is therefore missing too. Trailing spaces are not significant.
     /// </summary>
     private static string? DecodeString(ReadOnlySpan<byte> field)
     {
         int end = field.IndexOf((byte)0);
-        if (end == 0) return field.IndexOfAnyExcept((byte)0) < 0 ? null : "";
+        if (end == 0) return null;
         if (end < 0) end = field.Length;
         var text = field[..end].TrimEnd((byte)' ');
         return text.Length == 0 ? "" : Encoding.UTF8.GetString(text);

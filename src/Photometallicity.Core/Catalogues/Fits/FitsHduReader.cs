@@ -17,7 +17,7 @@ internal sealed record FitsHdu(FitsHeader Header, long DataStart, long DataBytes
 
 /// <summary>
 /// Walks the HDUs of a FITS file: reads each header in 2880-byte blocks up to its END card and works out the
-/// size of its data from BITPIX, NAXISn, PCOUNT and GCOUNT (FITS Standard 4.0, sect. 4.4.1, eq. 1 and 2),
+/// size of its data from BITPIX, NAXISn, PCOUNT and GCOUNT (FITS Standard 4.0, sect. 4.4.1; the data-size equations),
 /// so that image extensions and random groups are skipped correctly.
 /// </summary>
 internal static class FitsHduReader

@@ -11,7 +11,9 @@ namespace Photometallicity.Catalogues.Fits;
 /// become ordinary cards; any other printable-ASCII key without '=' is written with the HIERARCH convention (case
 /// kept; a string that does not fit the one card is cut); keys that cannot be written either way are skipped.
 /// Values "T"/"F" are written as logicals, values in FITS integer or float syntax as numbers, anything else as a
-/// quoted string (continued on CONTINUE cards when long). Non-ASCII characters in values become '?'.</para>
+/// quoted string (continued on CONTINUE cards when long), so a string keyword read as 'T' or '42' comes back as a
+/// logical or a number, and complex or undefined values come back as strings. Non-ASCII characters in values and
+/// comments become '?'.</para>
 /// </summary>
 internal static class FitsHeaderBuilder
 {

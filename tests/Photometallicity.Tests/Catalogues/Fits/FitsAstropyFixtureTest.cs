@@ -8,7 +8,7 @@ namespace Photometallicity.Tests.Catalogues.Fits;
 /// <summary>
 /// Reads the fixtures written by Debian's astropy (tests/reference/make_fits_fixtures.py; version in the sidecar and
 /// in each header's ASTROPYV) and compares every value with what astropy itself reads back (tests/fixtures/fits/expected.json).
-/// Tolerance: exact for every stored value; 1e-12 relative for TSCAL/TZERO-scaled values (eq. 7 of FITS Standard 4.0
+/// Tolerance: exact for every stored value; 1e-12 relative for TSCAL/TZERO-scaled values (the scaling equation of FITS Standard 4.0, sect. 7.3.2,
 /// evaluated in double precision, where the order of operations may differ by one rounding).
 /// </summary>
 public class FitsAstropyFixtureTest
