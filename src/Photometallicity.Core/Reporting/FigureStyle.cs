@@ -15,13 +15,11 @@ internal static class FigureStyle
     public const float LegendSize = 16;
     public const float NoteSize = 14;
 
-    /// <summary>Creates a plot whose text uses the bundled font.</summary>
+    /// <summary>Creates a plot whose text uses the bundled font (registered as ScottPlot's default first).</summary>
     public static Plot NewPlot()
     {
         ReportFonts.EnsureRegistered();
-        var plot = new Plot();
-        plot.Font.Set(ReportFonts.FamilyName, FontWeight.Normal, FontSlant.Upright, FontSpacing.Normal);
-        return plot;
+        return new Plot();
     }
 
     /// <summary>Applies sizes and colours; call after every axis and colour bar has been added.</summary>
