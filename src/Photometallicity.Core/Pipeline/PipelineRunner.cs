@@ -16,8 +16,9 @@ namespace Photometallicity.Pipeline;
 /// </summary>
 public static class PipelineRunner
 {
-    public static PipelineResult Run(PipelineConfig config, ILogger? logger = null, ProgressReporter? progress = null)
+    public static PipelineResult Run(PipelineConfig config, ILogger? logger = null, ProgressReporter? progress = null, RunScope? scope = null)
     {
+        scope ??= RunScope.Whole;
         var log = logger ?? NullLogger.Instance;
         var timings = new List<(string, double)>();
         var warnings = new List<string>();
@@ -52,24 +53,39 @@ public static class PipelineRunner
         var photometry = PhotometryStep.Run(config, inputs, match.RightIndex, log);
         Lap("photometry");
 
-        var standards = StandardsStep.Build(config, inputs, bra, bdec, photometry.Index, log);
-        CalibrationResult calibration;
-        using (var p = progress?.For("calibration bootstrap"))
+        StandardsProducts? standards = null;
+        CalibrationResult? calibration = null;
+        CalibrationModel cm;
+        if (scope.CalibrationPath is { } calPath)
         {
-            calibration = CalibrationFitter.Run(standards.Standards, new CalibrationOptions
-            {
-                Bootstrap = config.Calibration.Bootstrap,
-                Seed = config.Calibration.Seed,
-                Degree = config.Calibration.Degree,
-                MaxDegree = config.Calibration.MaxDegree,
-                ClipSigma = config.Calibration.ClipSigma,
-                Filters = photometry.Filters,
-            }, log, p);
+            cm = CalibrationJson.Read(calPath);
+            CalibrationCompatibility.Require(cm, photometry.Filters, calPath);
+            log.LogInformation("calibration read from {Path}: degree {Degree}, {Members} ensemble members, rms {Rms:F3} dex", calPath, cm.Basis.Degree,
+                cm.EnsembleCoefficients.Length, cm.RmsDex);
         }
-        var cm = calibration.Model;
-        log.LogInformation("calibration: {Used} standards used, {Rejected} rejected, degree {Degree}, rms {Rms:F3} dex, sigma_int {Sig:F3} mag",
-            cm.StandardsUsed, cm.StandardsRejected, cm.Basis.Degree, cm.RmsDex, cm.SigmaInt);
-        Lap("calibration");
+        else
+        {
+            standards = StandardsStep.Build(config, inputs, bra, bdec, photometry.Index, log);
+            using (var p = progress?.For("calibration bootstrap"))
+            {
+                calibration = CalibrationFitter.Run(standards.Standards, new CalibrationOptions
+                {
+                    Bootstrap = config.Calibration.Bootstrap,
+                    Seed = config.Calibration.Seed,
+                    Degree = config.Calibration.Degree,
+                    MaxDegree = config.Calibration.MaxDegree,
+                    ClipSigma = config.Calibration.ClipSigma,
+                    Filters = photometry.Filters,
+                }, log, p);
+            }
+            cm = calibration.Model;
+            log.LogInformation("calibration: {Used} standards used, {Rejected} rejected, degree {Degree}, rms {Rms:F3} dex, sigma_int {Sig:F3} mag",
+                cm.StandardsUsed, cm.StandardsRejected, cm.Basis.Degree, cm.RmsDex, cm.SigmaInt);
+            Lap("calibration");
+        }
+        if (scope.StopAfter == PipelineStage.Calibration)
+            return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
+                Standards = standards, Calibration = calibration, Warnings = warnings, Timings = timings };
 
         MetallicityResult metallicity;
         using (var p = progress?.For("metallicity"))
@@ -85,6 +101,13 @@ public static class PipelineRunner
         }
         log.LogInformation("metallicity: {Counts}", string.Join(", ", metallicity.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
         Lap("metallicity");
+        if (scope.StopAfter == PipelineStage.Metallicity)
+        {
+            var noMembers = Enumerable.Repeat(double.NaN, inputs.Broadband.RowCount).ToArray();
+            return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
+                Standards = standards, Calibration = calibration, Metallicity = metallicity, Warnings = warnings, Timings = timings,
+                Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers) };
+        }
 
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
         var membership = MembershipStep.Run(config, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
@@ -95,7 +118,7 @@ public static class PipelineRunner
         Lap("membership");
 
         var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
-        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership);
+        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember);
         foreach (var w in warnings) log.LogWarning("{Warning}", w);
         return new PipelineResult
         {
@@ -103,6 +126,8 @@ public static class PipelineRunner
             Inputs = inputs,
             Match = match,
             Photometry = photometry,
+            Scope = scope,
+            Model = cm,
             Standards = standards,
             Calibration = calibration,
             Metallicity = metallicity,
