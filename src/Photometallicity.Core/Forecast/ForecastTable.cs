@@ -7,8 +7,7 @@ public static class ForecastTable
 {
     public static Table ToTable(IReadOnlyList<PrecisionPoint> rows)
     {
-        Column D(string name, Func<PrecisionPoint, double> get, string unit, string description) =>
-            new Column<double>(name, rows.Select(get).ToArray(), unit: unit, description: description);
+        Column D(string name, Func<PrecisionPoint, double> get, string unit, string description) => Doubles(rows, name, get, unit, description);
         return new Table([
             D("blue_mag", r => r.BlueMag, "mag", "dereddened blue magnitude"),
             D("colour0", r => r.Colour, "mag", "dereddened colour blue - red"),
@@ -32,8 +31,7 @@ public static class ForecastTable
 
     public static Table ToTable(IReadOnlyList<LimitingMagnitude> rows)
     {
-        Column D(string name, Func<LimitingMagnitude, double> get, string unit, string description) =>
-            new Column<double>(name, rows.Select(get).ToArray(), unit: unit, description: description);
+        Column D(string name, Func<LimitingMagnitude, double> get, string unit, string description) => Doubles(rows, name, get, unit, description);
         return new Table([
             D("distance_modulus", r => r.DistanceModulus, "mag", "distance modulus"),
             D("colour0", r => r.Colour, "mag", "dereddened colour blue - red"),
@@ -47,8 +45,7 @@ public static class ForecastTable
 
     public static Table ToTable(IReadOnlyList<DepthRequirement> rows)
     {
-        Column D(string name, Func<DepthRequirement, double> get, string unit, string description) =>
-            new Column<double>(name, rows.Select(get).ToArray(), unit: unit, description: description);
+        Column D(string name, Func<DepthRequirement, double> get, string unit, string description) => Doubles(rows, name, get, unit, description);
         return new Table([
             new Column<string>("band", rows.Select(r => r.Band.ToString().ToLowerInvariant()).ToArray(), description: "band whose depth is varied"),
             D("blue_mag", r => r.BlueMag, "mag", "dereddened blue magnitude"),
@@ -60,4 +57,7 @@ public static class ForecastTable
             new Column<string>("status", rows.Select(r => r.Status.ToString()).ToArray(), description: "search outcome"),
         ]);
     }
+
+    private static Column Doubles<T>(IReadOnlyList<T> rows, string name, Func<T, double> get, string unit, string description) =>
+        new Column<double>(name, rows.Select(get).ToArray(), unit: unit, description: description);
 }
