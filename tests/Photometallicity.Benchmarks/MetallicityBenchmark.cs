@@ -24,16 +24,26 @@ internal static class MetallicityBenchmark
         var model = BuildModel(members);
         var phot = Stars(n, model);
 
+        var proc = Process.GetCurrentProcess();
+        var cpu0 = proc.TotalProcessorTime;
         var clock = Stopwatch.StartNew();
         var assigner = new MetallicityAssigner(model, new MetallicityOptions { MaxDegreeOfParallelism = threads, PointsPerSigma = pps, MaxEvaluationStride = maxStride });
         double setup = clock.Elapsed.TotalSeconds;
         var r = assigner.Run(phot);
         double total = clock.Elapsed.TotalSeconds;
+        proc.Refresh();
+        double cpu = (proc.TotalProcessorTime - cpu0).TotalSeconds;
         double meanWindow = r.Likelihoods.Length.Where(l => l > 0).DefaultIfEmpty().Average();
         Console.WriteLine($"metallicity: {n} stars, {members} members, {Environment.ProcessorCount} cores, threads {threads}");
         Console.WriteLine($"  tabulation {setup:F2} s ({model.EnsembleCoefficients.Length} members, colour step {assigner.ColourNodeStep:F4} mag)");
-        Console.WriteLine($"  total {total:F2} s, {n / total:F0} stars/s; mean stored likelihood window {meanWindow:F0} points");
+        Console.WriteLine($"  total {total:F2} s wall, {n / total:F0} stars/s; CPU {cpu:F2} s ({1e6 * cpu / n:F1} us per star, {n / cpu * 2:F0} stars/s on 2 idle cores)");
+        Console.WriteLine($"  mean stored likelihood window {meanWindow:F0} points, {r.Likelihoods.Values.Length * 4e-6:F0} MB of likelihoods; load average {LoadAverage()}");
         Console.WriteLine("  " + string.Join(", ", r.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
+    }
+
+    private static string LoadAverage()
+    {
+        try { return File.ReadAllText("/proc/loadavg").Split(' ')[0]; } catch (IOException) { return "n/a"; }
     }
 
     /// <summary>Invented model: X0 = a + b C + (c + d C) 0.06 (F + 3.8)^2 + e (C - 1.4)^2, degree 3, with a perturbed ensemble.</summary>

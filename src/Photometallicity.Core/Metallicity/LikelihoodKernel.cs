@@ -99,9 +99,6 @@ internal sealed class LikelihoodKernel
         return true;
     }
 
-    /// <summary>Evaluation stride (1 = every grid point) and ensemble members of queued star q.</summary>
-    public (int Stride, int Members) EffortOf(int q) => (_g.Levels[_tasks[q].Level].Stride, _tasks[q].MemberCount);
-
     /// <summary>Accumulates every queued star's likelihood, member by member.</summary>
     public void AccumulateBatch()
     {

@@ -16,7 +16,7 @@ public class MetallicityAssignerApproximationTest(ITestOutputHelper output)
         var model = SyntheticCalibration.Build(160, 0.01, 31);
         // Faint-ish stars: broad likelihoods, where stride and subset both act (measured with 300 members and 1500 stars:
         // median 0.004, 99th percentile 0.020, largest 0.034 sigma).
-        var stars = SyntheticCalibration.Draw(600, 32, 0.01, (0.01, 0.05), (0.02, 0.10));
+        var stars = SyntheticCalibration.Draw(400, 32, 0.01, (0.01, 0.05), (0.02, 0.10));
         var fast = MetallicityAssigner.Run(stars.Photometry, model, new MetallicityOptions());
         var exact = MetallicityAssigner.Run(stars.Photometry, model, new MetallicityOptions { MaxEvaluationStride = 1, EnsembleSubsetTolerance = 0 });
         var dev = new List<double>();
@@ -30,7 +30,7 @@ public class MetallicityAssignerApproximationTest(ITestOutputHelper output)
         dev.Sort();
         double p99 = dev[(int)(0.99 * (dev.Count - 1))], max = dev[^1];
         output.WriteLine($"{dev.Count} stars: |fast - exact| / sigma median {dev[dev.Count / 2]:F4}, 99th percentile {p99:F4}, max {max:F4}");
-        Assert.True(dev.Count > 550);
+        Assert.True(dev.Count > 370);
         Assert.True(p99 < 0.04, $"99th percentile deviation {p99} sigma");
         Assert.True(max < 0.08, $"largest deviation {max} sigma");
     }
