@@ -24,6 +24,8 @@ public sealed record PipelineResult
     public MetallicityResult? Metallicity { get; init; }
     public MembershipResult? Membership { get; init; }
     public NarrowCompleteness? Completeness { get; init; }
+    public ForecastProducts? Forecast { get; init; }
+    public ForecastRequest? ForecastRequest { get; init; }
     public StarRows? Stars { get; init; }
     public required IReadOnlyList<string> Warnings { get; init; }
     public required IReadOnlyList<(string Stage, double Seconds)> Timings { get; init; }

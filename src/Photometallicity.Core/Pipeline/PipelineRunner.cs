@@ -117,6 +117,18 @@ public static class PipelineRunner
             membership.Mdf?.Sigma ?? double.NaN, membership.Mdf?.SigmaErr ?? double.NaN);
         Lap("membership");
 
+        var request = new ForecastRequest(config.Forecast.Colours, config.Forecast.FehDex, config.Forecast.PrecisionDex, config.Target.DistanceModulus);
+        ForecastProducts? forecast = null;
+        if (photometry.ErrorModels.Count == 3)
+        {
+            var em = photometry.ErrorModels;
+            forecast = ForecastStep.Run(cm, new Forecast.BandErrorModels(em[0], em[1], em[2]), request);
+            foreach (var l in forecast.Limits)
+                log.LogInformation("forecast: a giant of colour {C:F2} and [Fe/H] {F:F1} reaches {P:F2} dex down to blue0 = {M:F2} ({Status})", l.Colour, l.Feh, l.PrecisionDex, l.BlueApparent, l.Status);
+            Lap("forecast");
+        }
+        else warnings.Add("no forecast: a photometric error model could not be fitted for every band");
+
         var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
         var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember);
         foreach (var w in warnings) log.LogWarning("{Warning}", w);
@@ -133,6 +145,8 @@ public static class PipelineRunner
             Metallicity = metallicity,
             Membership = membership,
             Completeness = completeness,
+            Forecast = forecast,
+            ForecastRequest = request,
             Stars = stars,
             Warnings = warnings,
             Timings = timings,

@@ -38,6 +38,7 @@ public static class RunOutputWriter
             CatalogueIO.Write(ResidualsTable.Build(standards, fit), res);
             written.Add(res);
         }
+        if (r.Forecast is { } fc && r.ForecastRequest is { } fr) written.AddRange(ForecastStep.Write(fc, directory, fr.PrecisionDex).Take(3));
         string summary = Path.Combine(directory, "summary.json");
         AtomicFile.WriteAllText(summary, SummaryBuilder.Build(r).ToJsonString(JsonOptions) + "\n");
         written.Add(summary);

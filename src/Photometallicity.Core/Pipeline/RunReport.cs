@@ -70,7 +70,9 @@ public static class RunReport
                 "Metallicity distribution of the members: membership-weighted histogram of the per-star posterior medians, the fitted Gaussian (intrinsic spread), and the spread expected from the per-star errors.", "Metallicity distribution");
 
         string forecastCsv = Path.Combine(directory, "forecast.csv");
-        // forecast figure: added with the forecast step
+        if (File.Exists(forecastCsv) && summary["forecast"] is JsonObject fc)
+            Add(ForecastStep.WriteFigure(forecastCsv, Num(fc["precision_dex"]), Path.Combine(plots, "forecast")),
+                "Forecast: expected [Fe/H] precision (posterior half-width) of a red giant against its dereddened blue magnitude, from the calibration and the fitted photometric error models; the horizontal line is the requested precision.", "Forecast");
 
         var page = SummaryPageBuilder.Build(directory, summary, figures);
         string html = Path.Combine(directory, "summary.html"), md = Path.Combine(directory, "summary.md");

@@ -45,6 +45,7 @@ public static class SummaryBuilder
                 ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm),
             };
         }
+        if (r.Forecast is { } fc && r.ForecastRequest is { } fr) summary["forecast"] = ForecastStep.Summary(fc, fr);
         summary["warnings"] = new JsonArray(r.Warnings.Select(w => (JsonNode)JsonValue.Create(w)!).ToArray());
         summary["provenance"] = new JsonObject
         {
