@@ -125,6 +125,9 @@ public static class CalibrationFitter
         var mono = MonotonicityCheck.Run(basis, coef, new ValidityDomain(hullPoints, []), options.MinSensitivity);
         foreach (var note in mono.Notes) logger.LogWarning("calibration: {Note}", note);
         var domain = new ValidityDomain(hullPoints, mono.Excluded);
+        double span = domain.ColourMax - domain.ColourMin, excludedSpan = mono.Excluded.Sum(e => e.ColourMax - e.ColourMin);
+        if (span > 0 && excludedSpan >= span * (1 - 1e-9))
+            throw new MethodException($"The degree-{degree} model fitted to {accepted.Count} standards is not usefully monotonic in [Fe/H] at any colour of the domain ({string.Join("; ", mono.Notes)}). The standards do not constrain the metallicity dependence; add standards spanning more [Fe/H] or lower the degree.");
 
         // 6. Bootstrap ensemble.
         var boot = options.Bootstrap > 0

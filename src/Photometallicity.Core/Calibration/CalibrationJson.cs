@@ -20,7 +20,7 @@ public static class CalibrationJson
 
     public static void Write(CalibrationModel model, CalibrationResult? result, Stream stream)
     {
-        using var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = true, Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping });
+        using var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = true, NewLine = "\n", Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping });
         w.WriteStartObject();
         w.WriteString("format", FormatName);
         w.WriteNumber("format_version", FormatVersion);

@@ -147,6 +147,21 @@ public class CalibrationFitterTest
         Assert.Contains("star0002", e.Message);
     }
 
+    [Fact]
+    public void Run_ReportsProgressUpToOne()
+    {
+        var seen = new List<double>();
+        var progress = new SyncProgress(v => { lock (seen) seen.Add(v); });
+        CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 40 }, 15), SyntheticStandards.Options(bootstrap: 30, degree: 1), null, progress);
+        Assert.Equal(1.0, seen.Max());
+        Assert.All(seen, v => Assert.InRange(v, 0.0, 1.0));
+    }
+
+    private sealed class SyncProgress(Action<double> report) : IProgress<double>
+    {
+        public void Report(double value) => report(value);
+    }
+
     internal static byte[] Serialize(CalibrationResult r)
     {
         using var ms = new MemoryStream();
