@@ -44,8 +44,8 @@ public static class CalibrationFitter
         var data = new FitData(standards, usable);
         var basisFor = BasisMaker(standards, idx);
         var units = ResampleUnits.Build(standards.Group, usable);
-        var fold = units.AssignFolds(Math.Min(options.Folds, units.Count), n, Seeds.Derive(options.Seed, "calibration-cv"));
         int folds = Math.Min(options.Folds, units.Count);
+        var fold = units.AssignFolds(folds, n, Seeds.Derive(options.Seed, "calibration-cv"));
 
         // 2. Degree: fixed, or by cross-validation.
         int distinctColours = idx.Select(i => standards.Colour0[i]).Distinct().Count();
@@ -92,6 +92,8 @@ public static class CalibrationFitter
         if (err is not null)
             throw new MethodException($"The calibration fit failed at degree {degree} ({np} coefficients) with {idx.Length} usable standards: {err}.");
         var coef = fit.Coefficients.ToArray();
+        if (fit.ClipIterations > EffectiveVarianceFit.MaxClipIterations)
+            logger.LogWarning("calibration: outlier clipping did not settle after {N} passes; the last pass is used", EffectiveVarianceFit.MaxClipIterations);
         var cov = new double[np * np];
         if (!fit.Covariance(cov)) throw new MethodException($"The calibration's Fisher matrix is singular at degree {degree}; the accepted standards do not constrain {np} coefficients.");
 
@@ -174,6 +176,7 @@ public static class CalibrationFitter
             FehSlopeSign = mono.Sign,
             MonotonicityNotes = mono.Notes,
             BootstrapRedrawn = boot.Redrawn,
+            ClippingPasses = fit.ClipIterations,
             BootstrapStandardErrors = se,
         };
     }

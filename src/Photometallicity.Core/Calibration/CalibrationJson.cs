@@ -102,6 +102,7 @@ public static class CalibrationJson
         w.WriteStartArray("monotonicity_notes");
         foreach (var s in r.MonotonicityNotes) w.WriteStringValue(s);
         w.WriteEndArray();
+        w.WriteNumber("clipping_passes", r.ClippingPasses);
         w.WriteNumber("bootstrap_redrawn", r.BootstrapRedrawn);
         Arr(w, "bootstrap_standard_errors", r.BootstrapStandardErrors);
         w.WriteStartArray("standards");
