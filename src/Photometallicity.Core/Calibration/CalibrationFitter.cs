@@ -54,6 +54,7 @@ public static class CalibrationFitter
         var scoreErrors = Enumerable.Repeat(double.NaN, 4).ToArray();
         var ineligible = new SortedDictionary<int, string>();
         var outcomes = new List<CrossValidation.Outcome>();
+        CrossValidation.Outcome? fixedFallback = null;
         int[] degrees = options.Degree is { } fixedDegree ? [fixedDegree] : Enumerable.Range(1, options.MaxDegree).ToArray();
         foreach (int deg in degrees)
         {
@@ -66,6 +67,9 @@ public static class CalibrationFitter
             if (why is not null)
             {
                 ineligible[deg] = why;
+                // A degree the user fixed is still fitted when only its cross-validation failed (too few standards
+                // per fold); the cross-validated residuals are then partly missing.
+                if (options.Degree is not null && o is not null) fixedFallback = o;
                 logger.LogInformation("calibration: degree {Degree} not eligible: {Why}", deg, why);
                 continue;
             }
@@ -74,12 +78,12 @@ public static class CalibrationFitter
             outcomes.Add(o);
             logger.LogInformation("calibration: degree {Degree}: CV rms {Rms:F4} mag", deg, Math.Sqrt(o.Score));
         }
-        if (outcomes.Count == 0)
+        if (outcomes.Count == 0 && fixedFallback is null)
             throw new MethodException(
                 $"The standards cannot support a calibration: {idx.Length} usable standards ({units.Count} independent units, {distinctColours} distinct colours, {distinctFeh} distinct [Fe/H] values) of {n} given. " +
                 string.Join("; ", ineligible.Select(kv => $"degree {kv.Key}: {kv.Value}")) + ". Add standards spanning more colours and [Fe/H] values.");
         var (degree, degreeReason) = options.Degree is { } fd ? (fd, $"degree {fd} fixed by the options") : CrossValidation.Choose(outcomes);
-        var cv = outcomes.First(o => o.Degree == degree);
+        var cv = outcomes.FirstOrDefault(o => o.Degree == degree) ?? fixedFallback!;
         var basis = basisFor(degree);
         int np = basis.Count;
         logger.LogInformation("calibration: {Reason}", degreeReason);

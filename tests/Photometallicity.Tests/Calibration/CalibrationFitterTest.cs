@@ -162,6 +162,17 @@ public class CalibrationFitterTest
         public void Report(double value) => report(value);
     }
 
+    [Fact]
+    public void Run_FixedDegreeWithTooFewStandardsPerFold_StillFitsAndSaysWhy()
+    {
+        // 13 standards, degree 3 (10 coefficients): enough to fit, too few for 5-fold cross-validation.
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 13, SigmaInt = 0.005 }, 16);
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0, degree: 3) with { ClipSigma = 100 });
+        Assert.Equal(3, r.Degree);
+        Assert.Contains("fold", r.IneligibleDegrees[3]);
+        Assert.Equal(13, r.Model.StandardsUsed);
+    }
+
     internal static byte[] Serialize(CalibrationResult r)
     {
         using var ms = new MemoryStream();
