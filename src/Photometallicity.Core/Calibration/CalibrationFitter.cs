@@ -48,45 +48,11 @@ public static class CalibrationFitter
         var fold = units.AssignFolds(folds, n, Seeds.Derive(options.Seed, "calibration-cv"));
 
         // 2. Degree: fixed, or by cross-validation.
-        int distinctColours = idx.Select(i => standards.Colour0[i]).Distinct().Count();
-        int distinctFeh = idx.Select(i => standards.Feh[i]).Distinct().Count();
-        var scores = Enumerable.Repeat(double.NaN, 4).ToArray();
-        var scoreErrors = Enumerable.Repeat(double.NaN, 4).ToArray();
-        var ineligible = new SortedDictionary<int, string>();
-        var outcomes = new List<CrossValidation.Outcome>();
-        CrossValidation.Outcome? fixedFallback = null;
-        int[] degrees = options.Degree is { } fixedDegree ? [fixedDegree] : Enumerable.Range(1, options.MaxDegree).ToArray();
-        foreach (int deg in degrees)
-        {
-            int p = PolynomialBasis2D.CountFor(deg);
-            string? why = idx.Length < p + 2 ? $"{idx.Length} usable standards for {p} coefficients (at least {p + 2} needed)"
-                : distinctFeh < deg + 1 ? $"{distinctFeh} distinct [Fe/H] values (at least {deg + 1} needed)"
-                : distinctColours < deg + 1 ? $"{distinctColours} distinct colours (at least {deg + 1} needed)" : null;
-            var o = why is null ? CrossValidation.Run(data, fold, folds, basisFor(deg), options.ClipSigma) : null;
-            why ??= o!.Failure;
-            if (why is not null)
-            {
-                ineligible[deg] = why;
-                // A degree the user fixed is still fitted when only its cross-validation failed (too few standards
-                // per fold); the cross-validated residuals are then partly missing.
-                if (options.Degree is not null && o is not null) fixedFallback = o;
-                logger.LogInformation("calibration: degree {Degree} not eligible: {Why}", deg, why);
-                continue;
-            }
-            scores[deg - 1] = o!.Score;
-            scoreErrors[deg - 1] = o.StandardError;
-            outcomes.Add(o);
-            logger.LogInformation("calibration: degree {Degree}: CV rms {Rms:F4} mag", deg, Math.Sqrt(o.Score));
-        }
-        if (outcomes.Count == 0 && fixedFallback is null)
-            throw new MethodException(
-                $"The standards cannot support a calibration: {idx.Length} usable standards ({units.Count} independent units, {distinctColours} distinct colours, {distinctFeh} distinct [Fe/H] values) of {n} given. " +
-                string.Join("; ", ineligible.Select(kv => $"degree {kv.Key}: {kv.Value}")) + ". Add standards spanning more colours and [Fe/H] values.");
-        var (degree, degreeReason) = options.Degree is { } fd ? (fd, $"degree {fd} fixed by the options") : CrossValidation.Choose(outcomes);
-        var cv = outcomes.FirstOrDefault(o => o.Degree == degree) ?? fixedFallback!;
+        var sel = DegreeSelection.Run(data, standards, idx, units, fold, folds, basisFor, options, logger);
+        int degree = sel.Degree;
+        var cv = sel.Cv;
         var basis = basisFor(degree);
         int np = basis.Count;
-        logger.LogInformation("calibration: {Reason}", degreeReason);
 
         // 3. Best fit with clipping.
         var fit = new EffectiveVarianceFit(data, basis, options.ClipSigma);
@@ -170,11 +136,11 @@ public static class CalibrationFitter
         {
             Model = model,
             PerStandard = verdicts,
-            CvScoreByDegree = scores,
-            CvScoreErrorByDegree = scoreErrors,
-            IneligibleDegrees = ineligible,
+            CvScoreByDegree = sel.Scores,
+            CvScoreErrorByDegree = sel.ScoreErrors,
+            IneligibleDegrees = sel.Ineligible,
             Degree = degree,
-            DegreeReason = degreeReason,
+            DegreeReason = sel.Reason,
             CvRmsIndex = cvRmsIndex,
             CvRmsDex = cvRmsDex,
             FehSlopeSign = mono.Sign,

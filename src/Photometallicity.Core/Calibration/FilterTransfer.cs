@@ -148,14 +148,13 @@ public static class FilterTransfer
         // transformation's own uncertainty gives the mapped best fit (first order, independent contributions).
         var m = new double[p * ob.Count];
         var unit = new double[ob.Count];
-        var lin = t with { B0 = 0, B2 = 0 };
-        var baseline = grid.Refit(ob, unit, lin);
+        var lin = t with { B0 = 0, B2 = 0 }; // the part of the map that is linear in the old coefficients
         for (int k = 0; k < ob.Count; k++)
         {
             unit[k] = 1;
             var col = grid.Refit(ob, unit, lin);
             unit[k] = 0;
-            for (int j = 0; j < p; j++) m[j * ob.Count + k] = col[j] - baseline[j];
+            for (int j = 0; j < p; j++) m[j * ob.Count + k] = col[j];
         }
         var cov = new double[p * p];
         for (int i = 0; i < p; i++)
