@@ -13,7 +13,7 @@ namespace Photometallicity.Calibration;
 /// coefficients at fixed sigma_int are the weighted least-squares solution (weights m_i / V_i), so sigma_int is
 /// found by maximising the profile likelihood in ln sigma_int (Brent); the gradients are then recomputed from
 /// the new coefficients and the two steps repeated until the coefficients settle (iteratively reweighted
-/// least squares).
+/// least squares; at most 8 passes, stopping when no coefficient moves by more than 1e-6 of the largest).
 ///
 /// Outliers: after each fit every candidate standard's normalised residual z_i = r_i / sqrt(V_i) is computed;
 /// those with |z_i| &gt; clip are left out of the next fit, those back within the limit return, until the set no
@@ -21,7 +21,6 @@ namespace Photometallicity.Calibration;
 /// </summary>
 internal sealed class EffectiveVarianceFit
 {
-    private const int MaxClipIterations = 25;
     private const int MaxGradientIterations = 8;
     private const double LnSigmaMin = -13.815510557964274; // ln 1e-6 mag
     private const double LnSigmaMax = 1.6094379124341003;  // ln 5 mag
@@ -95,7 +94,10 @@ internal sealed class EffectiveVarianceFit
     /// <summary>df/d[Fe/H] at each candidate standard at the last fit (mag per dex).</summary>
     public ReadOnlySpan<double> GradientFeh => _gradF;
 
+    /// <summary>Clipping passes of the last fit; <see cref="MaxClipIterations"/> + 1 when the kept set never settled.</summary>
     public int ClipIterations { get; private set; }
+
+    public const int MaxClipIterations = 25;
 
     /// <summary>
     /// Fits the standards with multiplicity <paramref name="weight"/> (0 = not a candidate). Returns null on
@@ -114,9 +116,9 @@ internal sealed class EffectiveVarianceFit
         for (int iter = 1; iter <= MaxClipIterations; iter++)
         {
             ClipIterations = iter;
-            int distinct = 0;
-            for (int i = 0; i < n; i++) if (_active[i]) distinct++;
-            if (distinct < _p + 1) return $"{distinct} standards left for {_p} coefficients (at least {_p + 1} needed)";
+            int kept = 0;
+            for (int i = 0; i < n; i++) if (_active[i]) kept++;
+            if (kept < _p + 1) return $"{kept} standards left for {_p} coefficients (at least {_p + 1} needed)";
             string? err = FitActiveSet(warm: iter > 1);
             if (err is not null) return err;
             double s2 = SigmaInt * SigmaInt;
@@ -132,7 +134,8 @@ internal sealed class EffectiveVarianceFit
             if (!changed) return null;
             for (int i = 0; i < n; i++) if (_w[i] > 0) _active[i] = _candidate[i];
         }
-        return null; // the set oscillates between two states; the last fit stands (rare, reported by iteration count)
+        ClipIterations = MaxClipIterations + 1; // the set oscillates; the last fit stands (the stage warns)
+        return null;
     }
 
     /// <summary>Normalised residual of candidate i at the last fit.</summary>

@@ -59,7 +59,8 @@ public class FilterTransferTest
         }
         // Domain moved with the colour transformation.
         Assert.Equal(t.NewColour(r.Model.Domain.ColourMin), m.Domain.ColourMin, 1e-9);
-        Assert.Equal(r.Model.SigmaInt / Math.Abs(t.B1), m.SigmaInt, 1e-12);
+        Assert.Equal(Math.Sqrt(r.Model.SigmaInt * r.Model.SigmaInt + t.IndexScatter * t.IndexScatter) / Math.Abs(t.B1), m.SigmaInt, 1e-12);
+        Assert.InRange(t.IndexScatter, 0.0, 0.01); // the invented common stars have no scatter beyond their errors
         // Ensemble members carry their own drawn transformation: the spread grows beyond a fixed transformation's.
         Assert.Equal(r.Model.EnsembleCoefficients.Length, m.EnsembleCoefficients.Length);
         var fixedT = FilterTransfer.Apply(r.Model, t with { Ensemble = [] }, newFilters, seed: 5);
