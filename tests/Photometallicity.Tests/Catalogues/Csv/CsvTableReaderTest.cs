@@ -37,6 +37,23 @@ public class CsvTableReaderTest
     }
 
     [Fact]
+    public void Read_TextAfterManyRows_BackfillsAcrossReadBuffers()
+    {
+        const int n = 60_000; // about 1.3 MB: more than one read buffer
+        var sb = new System.Text.StringBuilder("id,x\n");
+        for (int i = 0; i < n; i++) sb.Append(i.ToString("D6", System.Globalization.CultureInfo.InvariantCulture)).Append(',').Append(i * 0.25).Append('\n');
+        sb.Append("last,1\n");
+        var t = CsvFiles.Read(sb.ToString());
+        var id = (Column<string>)t["id"];
+        Assert.Equal(n + 1, t.RowCount);
+        Assert.Equal("000000", id.Values[0]);
+        Assert.Equal("059999", id.Values[n - 1]);
+        Assert.Equal("last", id.Values[n]);
+        Assert.Equal(ColumnType.Double, t["x"].Type);
+        Assert.Equal((n - 1) * 0.25, t["x"].GetDouble(n - 1));
+    }
+
+    [Fact]
     public void Read_SentinelThenText_KeepsTheSentinelText()
     {
         var t = CsvFiles.Read("id\n-99\nnan\nX1\n", new ReadOptions { MissingSentinels = [-99] });
