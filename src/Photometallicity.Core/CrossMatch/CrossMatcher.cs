@@ -65,7 +65,7 @@ public static class CrossMatcher
             iterations = outcome.Iterations;
             if (options.AutoRadius && outcome.Fit is not null)
             {
-                var choice = ChooseRadius(rawTree, solver.MapLeft(outcome.Transform), radius);
+                var choice = ChooseRadius(rawTree, solver.MapSample(outcome.Transform), radius);
                 radius = choice.Radius;
                 radiusReason = choice.Reason;
                 outcome = solver.Iterate(outcome.Transform, radius.Radians, options.MaxIterations,
@@ -89,7 +89,7 @@ public static class CrossMatcher
         logger?.LogDebug("crossmatch: tree of the corrected catalogue {Ms}", Elapsed(clock));
         if (options.AutoRadius && outcome is null)
         {
-            var choice = ChooseRadius(tree, left, radius);
+            var choice = ChooseRadius(tree, SampleOf(left), radius);
             radius = choice.Radius;
             radiusReason = choice.Reason + " (no offset correction was applied)";
         }
@@ -169,6 +169,24 @@ public static class CrossMatcher
 
     private static string Elapsed(Stopwatch clock) =>
         $"{clock.ElapsedMilliseconds} ms wall, {System.Diagnostics.Process.GetCurrentProcess().TotalProcessorTime.TotalMilliseconds:0} ms process CPU";
+
+    /// <summary>At most 200 000 of the vectors, evenly spread along their spatial order.</summary>
+    private static UnitVectors SampleOf(UnitVectors v)
+    {
+        var rows = FalseMatchRate.Sample(v.Order, 200_000);
+        var x = new double[rows.Length];
+        var y = new double[rows.Length];
+        var z = new double[rows.Length];
+        var order = new int[rows.Length];
+        for (int k = 0; k < rows.Length; k++)
+        {
+            x[k] = v.X[rows[k]];
+            y[k] = v.Y[rows[k]];
+            z[k] = v.Z[rows[k]];
+            order[k] = k;
+        }
+        return new UnitVectors(x, y, z).WithOrder(order);
+    }
 
     private static AutoRadiusChoice ChooseRadius(SkyKdTree tree, UnitVectors queries, Angle guess)
     {

@@ -25,9 +25,12 @@ public sealed class UnitVectors
     public int[] Order => _order ??= SpatialOrder.Of(this);
 
     /// <summary>These vectors with the visiting order of <paramref name="like"/> (for slightly moved copies of the same points).</summary>
-    public UnitVectors WithOrderOf(UnitVectors like)
+    public UnitVectors WithOrderOf(UnitVectors like) => WithOrder(like.Order);
+
+    /// <summary>These vectors with a given visiting order (a permutation of 0 .. Count-1).</summary>
+    public UnitVectors WithOrder(int[] order)
     {
-        _order = like.Order;
+        _order = order;
         return this;
     }
 
