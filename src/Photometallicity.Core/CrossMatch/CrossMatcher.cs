@@ -99,19 +99,29 @@ public static class CrossMatcher
         var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
         var sep = new double[nLeft];
         var blend = new bool[nLeft];
+        Chunks.For(nLeft, (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++)
+            {
+                int r = rightIndex[i];
+                blend[i] = pairs.CountOf(i) >= 2;
+                if (r < 0)
+                {
+                    sep[i] = double.NaN;
+                    continue;
+                }
+                var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
+                sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
+            }
+        });
         int matched = 0, blends = 0, lost = 0;
         for (int i = 0; i < nLeft; i++)
         {
-            int r = rightIndex[i];
-            blend[i] = pairs.CountOf(i) >= 2;
-            if (r < 0)
+            if (rightIndex[i] < 0)
             {
-                sep[i] = double.NaN;
                 if (pairs.CountOf(i) > 0) lost++;
                 continue;
             }
-            var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
-            sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
             matched++;
             if (blend[i]) blends++;
         }
