@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Diagnostics;
 using Microsoft.Extensions.Logging;
 using Photometallicity.Errors;
@@ -99,7 +100,7 @@ public static class CrossMatcher
         var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
         var sep = new double[nLeft];
         var blend = new bool[nLeft];
-        Chunks.For(nLeft, (_, lo, hi) =>
+        Chunks.For(nLeft, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int i = lo; i < hi; i++)
             {

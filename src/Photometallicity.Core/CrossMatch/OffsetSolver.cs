@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -145,7 +146,7 @@ internal sealed class OffsetSolver
         var y = new double[n];
         var z = new double[n];
         var order = new int[n];
-        Chunks.For(n, (_, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int k = lo; k < hi; k++)
             {
@@ -165,7 +166,7 @@ internal sealed class OffsetSolver
         var x = new double[n];
         var y = new double[n];
         var z = new double[n];
-        Chunks.For(n, (_, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int i = lo; i < hi; i++)
             {

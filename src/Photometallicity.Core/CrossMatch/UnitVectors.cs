@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>Columnar unit vectors (x, y, z) of sky positions, and the way back to (RA, Dec) in degrees.</summary>
@@ -44,7 +45,7 @@ public sealed class UnitVectors
         var x = new double[n];
         var y = new double[n];
         var z = new double[n];
-        Chunks.For(n, (_, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int i = lo; i < hi; i++)
             {
