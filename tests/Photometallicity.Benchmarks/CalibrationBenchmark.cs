@@ -6,7 +6,7 @@ namespace Photometallicity.Benchmarks;
 
 /// <summary>
 /// Calibration stage: 300 invented standards (240 field stars, 6 invented clusters of 10), degree by 5-fold
-/// cross-validation over 1..3, B = 1000 bootstrap refits. Args: [standards] [bootstrap] [threads].
+/// cross-validation over 1..3, B = 1000 bootstrap refits. Args: [standards] [bootstrap] [threads|all] [calibration.json to write|-] [fixed degree].
 /// </summary>
 internal static class CalibrationBenchmark
 {
@@ -15,16 +15,20 @@ internal static class CalibrationBenchmark
     {
         int n = args.Length > 0 ? int.Parse(args[0]) : 300;
         int b = args.Length > 1 ? int.Parse(args[1]) : 1000;
-        int? threads = args.Length > 2 ? int.Parse(args[2]) : null;
+        int? threads = args.Length > 2 && args[2] != "all" ? int.Parse(args[2]) : null;
         var st = Make(n, 2026);
         var filters = new FilterSet("invented-system", "b_inv", "r_inv", "hk_inv", 1.1, 3.0, 1.5, 4.0);
-        var opt = new CalibrationOptions { Bootstrap = b, Seed = 5, Filters = filters, MaxThreads = threads };
+        int? degree = args.Length > 4 ? int.Parse(args[4]) : null;
+        var opt = new CalibrationOptions { Bootstrap = b, Seed = 5, Filters = filters, MaxThreads = threads, Degree = degree };
         CalibrationFitter.Run(Make(60, 1), opt with { Bootstrap = 20 }); // warm-up (JIT)
+        var cpu0 = Process.GetCurrentProcess().TotalProcessorTime;
         var sw = Stopwatch.StartNew();
         var r = CalibrationFitter.Run(st, opt);
         sw.Stop();
-        Console.WriteLine($"calibration: {n} standards, B = {b}, threads = {(threads?.ToString() ?? "all")} ({Environment.ProcessorCount} cores): {sw.Elapsed.TotalSeconds:F2} s");
+        var cpu = Process.GetCurrentProcess().TotalProcessorTime - cpu0;
+        Console.WriteLine($"calibration: {n} standards, B = {b}, threads = {(threads?.ToString() ?? "all")} ({Environment.ProcessorCount} cores): {sw.Elapsed.TotalSeconds:F2} s wall, {cpu.TotalSeconds:F2} s CPU");
         Console.WriteLine($"  degree {r.Degree}, accepted {r.Model.StandardsUsed}, rejected {r.Model.StandardsRejected}, sigma_int {r.Model.SigmaInt:F4} mag, rms {r.Model.RmsDex:F3} dex, redrawn {r.BootstrapRedrawn}");
+        if (args.Length > 3 && args[3] != "-") CalibrationJson.Write(r.Model, r, args[3]);
     }
 
     /// <summary>Invented standards (no real system): X0 = 0.4 + 0.55 C + 0.3 F + 0.1 C^2 + 0.15 C F + 0.06 F^2 + noise.</summary>

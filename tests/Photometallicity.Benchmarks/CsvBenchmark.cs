@@ -6,7 +6,8 @@ namespace Photometallicity.Benchmarks;
 
 /// <summary>
 /// CSV write and read of an invented table: 10^6 rows x 10 Double columns (or the row count given as the first
-/// argument), through <see cref="CatalogueIO"/> so the atomic write and the file checks are included.
+/// argument), through <see cref="CatalogueIO"/> so the atomic write and the file checks are included. A 1000-row
+/// pass first warms up the JIT.
 /// </summary>
 internal static class CsvBenchmark
 {
@@ -20,6 +21,12 @@ internal static class TableBenchmark
     public static void Run(string extension, string[] args)
     {
         int rows = args.Length > 0 ? int.Parse(args[0], System.Globalization.CultureInfo.InvariantCulture) : 1_000_000;
+        Measure(extension, 1000, quiet: true); // warm-up: JIT compilation is not part of the figures
+        Measure(extension, rows, quiet: false);
+    }
+
+    private static void Measure(string extension, int rows, bool quiet)
+    {
         const int columns = 10;
         var table = Invented(rows, columns);
         string dir = Path.Combine(Path.GetTempPath(), "pm-bench-" + Guid.NewGuid().ToString("N"));
@@ -38,6 +45,7 @@ internal static class TableBenchmark
             if (back.RowCount != rows || back.Columns.Count != columns) throw new InvalidOperationException("read back a different shape");
             for (int c = 0; c < columns; c++)
                 if (back.Columns[c].GetDouble(rows - 1) != table.Columns[c].GetDouble(rows - 1)) throw new InvalidOperationException("values differ");
+            if (quiet) return;
             Console.WriteLine($"{extension}: {rows} rows x {columns} double columns, {bytes / 1e6:F1} MB");
             Console.WriteLine($"{extension} write: {write:F2} s, {rows / write:F0} rows/s");
             Console.WriteLine($"{extension} read:  {read:F2} s, {rows / read:F0} rows/s");

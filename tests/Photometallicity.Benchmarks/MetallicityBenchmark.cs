@@ -9,7 +9,7 @@ namespace Photometallicity.Benchmarks;
 /// <summary>
 /// [Fe/H] assignment of 10^6 synthetic red giants (invented model and field) with a 500-member ensemble.
 /// Band errors follow <see cref="PhotometricErrorModel"/> for invented depths (blue 25.5, red 25.0, narrow 24.0 mag at 5 sigma,
-/// floor 0.005), blue magnitudes uniform in 19-23.5 mag. Args: [stars] [members] [threads].
+/// floor 0.005), blue magnitudes uniform in 19-23.5 mag. Args: [stars] [members] [threads] [points per sigma] [max stride].
 /// </summary>
 internal static class MetallicityBenchmark
 {
@@ -19,19 +19,31 @@ internal static class MetallicityBenchmark
         int n = args.Length > 0 ? int.Parse(args[0]) : 1_000_000;
         int members = args.Length > 1 ? int.Parse(args[1]) : 500;
         int threads = args.Length > 2 ? int.Parse(args[2]) : -1;
+        double pps = args.Length > 3 ? double.Parse(args[3], System.Globalization.CultureInfo.InvariantCulture) : new MetallicityOptions().PointsPerSigma;
+        int maxStride = args.Length > 4 ? int.Parse(args[4]) : new MetallicityOptions().MaxEvaluationStride;
         var model = BuildModel(members);
         var phot = Stars(n, model);
 
+        var proc = Process.GetCurrentProcess();
+        var cpu0 = proc.TotalProcessorTime;
         var clock = Stopwatch.StartNew();
-        var assigner = new MetallicityAssigner(model, new MetallicityOptions { MaxDegreeOfParallelism = threads });
+        var assigner = new MetallicityAssigner(model, new MetallicityOptions { MaxDegreeOfParallelism = threads, PointsPerSigma = pps, MaxEvaluationStride = maxStride });
         double setup = clock.Elapsed.TotalSeconds;
         var r = assigner.Run(phot);
         double total = clock.Elapsed.TotalSeconds;
+        proc.Refresh();
+        double cpu = (proc.TotalProcessorTime - cpu0).TotalSeconds;
         double meanWindow = r.Likelihoods.Length.Where(l => l > 0).DefaultIfEmpty().Average();
         Console.WriteLine($"metallicity: {n} stars, {members} members, {Environment.ProcessorCount} cores, threads {threads}");
         Console.WriteLine($"  tabulation {setup:F2} s ({model.EnsembleCoefficients.Length} members, colour step {assigner.ColourNodeStep:F4} mag)");
-        Console.WriteLine($"  total {total:F2} s, {n / total:F0} stars/s; mean stored likelihood window {meanWindow:F0} points");
+        Console.WriteLine($"  total {total:F2} s wall, {n / total:F0} stars/s; CPU {cpu:F2} s ({1e6 * cpu / n:F1} us per star, {n / cpu * 2:F0} stars/s on 2 idle cores)");
+        Console.WriteLine($"  mean stored likelihood window {meanWindow:F0} points, {r.Likelihoods.Values.Length * 4e-6:F0} MB of likelihoods; load average {LoadAverage()}");
         Console.WriteLine("  " + string.Join(", ", r.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
+    }
+
+    private static string LoadAverage()
+    {
+        try { return File.ReadAllText("/proc/loadavg").Split(' ')[0]; } catch (IOException) { return "n/a"; }
     }
 
     /// <summary>Invented model: X0 = a + b C + (c + d C) 0.06 (F + 3.8)^2 + e (C - 1.4)^2, degree 3, with a perturbed ensemble.</summary>

@@ -12,7 +12,7 @@ internal static class PipelineExecution
         var log = ctx.Logger("run");
         var result = PipelineRunner.Run(config, log, new ProgressReporter(ctx.Error));
         var files = RunOutputWriter.Write(result, config.Output.Directory);
-        if (config.Output.Plots) files = [.. files, .. RunReport.Write(result, config.Output.Directory, log)];
+        if (config.Output.Plots) files = [.. files, .. RunReport.Write(config.Output.Directory, log)];
         ctx.Error.WriteLine($"wrote {files.Count} files to {config.Output.Directory}:");
         foreach (var f in files) ctx.Error.WriteLine("  " + Path.GetRelativePath(config.Output.Directory, f));
         return result;

@@ -25,7 +25,7 @@ internal static class CalibrationBootstrap
         var coef = new double[replicates][];
         var sigma = new double[replicates];
         int redrawn = 0, done = 0, step = Math.Max(1, replicates / 100);
-        string? failure = null;
+        var failures = new string?[replicates];
         var po = new ParallelOptions { MaxDegreeOfParallelism = maxThreads ?? -1 };
         Parallel.For(0, replicates, po,
             () => (Fit: new EffectiveVarianceFit(d, basis, clip), W: new double[n]),
@@ -47,12 +47,13 @@ internal static class CalibrationBootstrap
                         break;
                     }
                 }
-                if (err is not null) Interlocked.CompareExchange(ref failure, $"bootstrap replicate {b}: {err} after {MaxAttempts} draws", null);
+                if (err is not null) failures[b] = $"bootstrap replicate {b}: {err} after {MaxAttempts} draws";
                 int k = Interlocked.Increment(ref done);
                 if (progress is not null && (k % step == 0 || k == replicates)) progress.Report((double)k / replicates);
                 return local;
             },
             _ => { });
+        string? failure = failures.FirstOrDefault(f => f is not null); // lowest replicate: the same message whatever the threads
         if (failure is not null)
             throw new MethodException($"The calibration bootstrap failed: {failure}. The standards are too few or too concentrated for a degree-{basis.Degree} model; add standards or choose a lower degree.");
         return new Outcome(coef, sigma, redrawn);

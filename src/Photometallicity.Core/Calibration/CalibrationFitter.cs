@@ -44,45 +44,15 @@ public static class CalibrationFitter
         var data = new FitData(standards, usable);
         var basisFor = BasisMaker(standards, idx);
         var units = ResampleUnits.Build(standards.Group, usable);
-        var fold = units.AssignFolds(Math.Min(options.Folds, units.Count), n, Seeds.Derive(options.Seed, "calibration-cv"));
         int folds = Math.Min(options.Folds, units.Count);
+        var fold = units.AssignFolds(folds, n, Seeds.Derive(options.Seed, "calibration-cv"));
 
         // 2. Degree: fixed, or by cross-validation.
-        int distinctColours = idx.Select(i => standards.Colour0[i]).Distinct().Count();
-        int distinctFeh = idx.Select(i => standards.Feh[i]).Distinct().Count();
-        var scores = Enumerable.Repeat(double.NaN, 4).ToArray();
-        var scoreErrors = Enumerable.Repeat(double.NaN, 4).ToArray();
-        var ineligible = new SortedDictionary<int, string>();
-        var outcomes = new List<CrossValidation.Outcome>();
-        int[] degrees = options.Degree is { } fixedDegree ? [fixedDegree] : Enumerable.Range(1, options.MaxDegree).ToArray();
-        foreach (int deg in degrees)
-        {
-            int p = PolynomialBasis2D.CountFor(deg);
-            string? why = idx.Length < p + 2 ? $"{idx.Length} usable standards for {p} coefficients (at least {p + 2} needed)"
-                : distinctFeh < deg + 1 ? $"{distinctFeh} distinct [Fe/H] values (at least {deg + 1} needed)"
-                : distinctColours < deg + 1 ? $"{distinctColours} distinct colours (at least {deg + 1} needed)" : null;
-            var o = why is null ? CrossValidation.Run(data, fold, folds, basisFor(deg), options.ClipSigma) : null;
-            why ??= o!.Failure;
-            if (why is not null)
-            {
-                ineligible[deg] = why;
-                logger.LogInformation("calibration: degree {Degree} not eligible: {Why}", deg, why);
-                continue;
-            }
-            scores[deg - 1] = o!.Score;
-            scoreErrors[deg - 1] = o.StandardError;
-            outcomes.Add(o);
-            logger.LogInformation("calibration: degree {Degree}: CV rms {Rms:F4} mag", deg, Math.Sqrt(o.Score));
-        }
-        if (outcomes.Count == 0)
-            throw new MethodException(
-                $"The standards cannot support a calibration: {idx.Length} usable standards ({units.Count} independent units, {distinctColours} distinct colours, {distinctFeh} distinct [Fe/H] values) of {n} given. " +
-                string.Join("; ", ineligible.Select(kv => $"degree {kv.Key}: {kv.Value}")) + ". Add standards spanning more colours and [Fe/H] values.");
-        var (degree, degreeReason) = options.Degree is { } fd ? (fd, $"degree {fd} fixed by the options") : CrossValidation.Choose(outcomes);
-        var cv = outcomes.First(o => o.Degree == degree);
+        var sel = DegreeSelection.Run(data, standards, idx, units, fold, folds, basisFor, options, logger);
+        int degree = sel.Degree;
+        var cv = sel.Cv;
         var basis = basisFor(degree);
         int np = basis.Count;
-        logger.LogInformation("calibration: {Reason}", degreeReason);
 
         // 3. Best fit with clipping.
         var fit = new EffectiveVarianceFit(data, basis, options.ClipSigma);
@@ -92,6 +62,8 @@ public static class CalibrationFitter
         if (err is not null)
             throw new MethodException($"The calibration fit failed at degree {degree} ({np} coefficients) with {idx.Length} usable standards: {err}.");
         var coef = fit.Coefficients.ToArray();
+        if (fit.ClipIterations > EffectiveVarianceFit.MaxClipIterations)
+            logger.LogWarning("calibration: outlier clipping did not settle after {N} passes; the last pass is used", EffectiveVarianceFit.MaxClipIterations);
         var cov = new double[np * np];
         if (!fit.Covariance(cov)) throw new MethodException($"The calibration's Fisher matrix is singular at degree {degree}; the accepted standards do not constrain {np} coefficients.");
 
@@ -125,6 +97,9 @@ public static class CalibrationFitter
         var mono = MonotonicityCheck.Run(basis, coef, new ValidityDomain(hullPoints, []), options.MinSensitivity);
         foreach (var note in mono.Notes) logger.LogWarning("calibration: {Note}", note);
         var domain = new ValidityDomain(hullPoints, mono.Excluded);
+        double span = domain.ColourMax - domain.ColourMin, excludedSpan = mono.Excluded.Sum(e => e.ColourMax - e.ColourMin);
+        if (span > 0 && excludedSpan >= span * (1 - 1e-9))
+            throw new MethodException($"The degree-{degree} model fitted to {accepted.Count} standards is not usefully monotonic in [Fe/H] at any colour of the domain ({string.Join("; ", mono.Notes)}). The standards do not constrain the metallicity dependence; add standards spanning more [Fe/H] or lower the degree.");
 
         // 6. Bootstrap ensemble.
         var boot = options.Bootstrap > 0
@@ -161,16 +136,17 @@ public static class CalibrationFitter
         {
             Model = model,
             PerStandard = verdicts,
-            CvScoreByDegree = scores,
-            CvScoreErrorByDegree = scoreErrors,
-            IneligibleDegrees = ineligible,
+            CvScoreByDegree = sel.Scores,
+            CvScoreErrorByDegree = sel.ScoreErrors,
+            IneligibleDegrees = sel.Ineligible,
             Degree = degree,
-            DegreeReason = degreeReason,
+            DegreeReason = sel.Reason,
             CvRmsIndex = cvRmsIndex,
             CvRmsDex = cvRmsDex,
             FehSlopeSign = mono.Sign,
             MonotonicityNotes = mono.Notes,
             BootstrapRedrawn = boot.Redrawn,
+            ClippingPasses = fit.ClipIterations,
             BootstrapStandardErrors = se,
         };
     }

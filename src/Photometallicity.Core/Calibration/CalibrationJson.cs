@@ -20,7 +20,7 @@ public static class CalibrationJson
 
     public static void Write(CalibrationModel model, CalibrationResult? result, Stream stream)
     {
-        using var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = true, Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping });
+        using var w = new Utf8JsonWriter(stream, new JsonWriterOptions { Indented = true, NewLine = "\n", Encoder = System.Text.Encodings.Web.JavaScriptEncoder.UnsafeRelaxedJsonEscaping });
         w.WriteStartObject();
         w.WriteString("format", FormatName);
         w.WriteNumber("format_version", FormatVersion);
@@ -102,6 +102,7 @@ public static class CalibrationJson
         w.WriteStartArray("monotonicity_notes");
         foreach (var s in r.MonotonicityNotes) w.WriteStringValue(s);
         w.WriteEndArray();
+        w.WriteNumber("clipping_passes", r.ClippingPasses);
         w.WriteNumber("bootstrap_redrawn", r.BootstrapRedrawn);
         Arr(w, "bootstrap_standard_errors", r.BootstrapStandardErrors);
         w.WriteStartArray("standards");

@@ -44,5 +44,8 @@ public sealed record CalibrationResult
     /// <summary>Bootstrap standard error of each coefficient (NaN without an ensemble).</summary>
     public required double[] BootstrapStandardErrors { get; init; }
 
+    /// <summary>Clipping passes of the best fit (more than EffectiveVarianceFit.MaxClipIterations: the kept set did not settle).</summary>
+    public int ClippingPasses { get; init; }
+
     public IEnumerable<StandardVerdict> Rejected => PerStandard.Where(v => !v.Accepted);
 }

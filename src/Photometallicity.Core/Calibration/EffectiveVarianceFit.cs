@@ -13,7 +13,7 @@ namespace Photometallicity.Calibration;
 /// coefficients at fixed sigma_int are the weighted least-squares solution (weights m_i / V_i), so sigma_int is
 /// found by maximising the profile likelihood in ln sigma_int (Brent); the gradients are then recomputed from
 /// the new coefficients and the two steps repeated until the coefficients settle (iteratively reweighted
-/// least squares).
+/// least squares; at most 8 passes, stopping when no coefficient moves by more than 1e-6 of the largest).
 ///
 /// Outliers: after each fit every candidate standard's normalised residual z_i = r_i / sqrt(V_i) is computed;
 /// those with |z_i| &gt; clip are left out of the next fit, those back within the limit return, until the set no
@@ -21,17 +21,19 @@ namespace Photometallicity.Calibration;
 /// </summary>
 internal sealed class EffectiveVarianceFit
 {
-    private const int MaxClipIterations = 25;
     private const int MaxGradientIterations = 8;
     private const double LnSigmaMin = -13.815510557964274; // ln 1e-6 mag
     private const double LnSigmaMax = 1.6094379124341003;  // ln 5 mag
-    private const double LnSigmaTol = 1e-4;
-    private const double WarmBracket = 0.7;
+    private const double LnSigmaTol = 1e-3;
+    private const double WarmBracket = 0.5;
 
     private readonly FitData _d;
     private readonly int _p;
     private readonly double _clip;
     private readonly double[] _terms, _dTermC, _dTermF; // N x p
+    private readonly double[] _outer; // N x p(p+1)/2: lower triangle of T_i T_i^T, and T_i X_i, X_i^2
+    private readonly int _stride;
+    private readonly bool _gradientFree; // no colour or [Fe/H] errors: V_i does not depend on the gradient
     private readonly double[] _baseVar, _resid, _gradF;
     private readonly bool[] _active, _candidate;
     private readonly double[] _a, _coef, _prev;
@@ -47,11 +49,23 @@ internal sealed class EffectiveVarianceFit
         _terms = new double[n * _p];
         _dTermC = new double[n * _p];
         _dTermF = new double[n * _p];
+        _stride = _p * (_p + 1) / 2 + _p + 1;
+        _gradientFree = true;
+        for (int i = 0; i < n; i++)
+            if (data.Usable[i] && (data.VarC[i] != 0 || data.VarF[i] != 0 || data.Cov[i] != 0)) { _gradientFree = false; break; }
+        _outer = new double[n * _stride];
         for (int i = 0; i < n; i++)
         {
             if (!data.Usable[i]) continue;
-            basis.Terms(data.C[i], data.F[i], _terms.AsSpan(i * _p, _p));
+            var t = _terms.AsSpan(i * _p, _p);
+            basis.Terms(data.C[i], data.F[i], t);
             basis.TermDerivatives(data.C[i], data.F[i], _dTermC.AsSpan(i * _p, _p), _dTermF.AsSpan(i * _p, _p));
+            var o = _outer.AsSpan(i * _stride, _stride);
+            int k = 0;
+            for (int r = 0; r < _p; r++)
+                for (int c = 0; c <= r; c++) o[k++] = t[r] * t[c];
+            for (int r = 0; r < _p; r++) o[k++] = t[r] * data.X[i];
+            o[k] = data.X[i] * data.X[i];
         }
         _baseVar = new double[n];
         _resid = new double[n];
@@ -60,6 +74,7 @@ internal sealed class EffectiveVarianceFit
         _candidate = new bool[n];
         _a = new double[_p * _p];
         _coef = new double[_p];
+        _rhs = new double[_p];
         _prev = new double[_p];
     }
 
@@ -79,7 +94,10 @@ internal sealed class EffectiveVarianceFit
     /// <summary>df/d[Fe/H] at each candidate standard at the last fit (mag per dex).</summary>
     public ReadOnlySpan<double> GradientFeh => _gradF;
 
+    /// <summary>Clipping passes of the last fit; <see cref="MaxClipIterations"/> + 1 when the kept set never settled.</summary>
     public int ClipIterations { get; private set; }
+
+    public const int MaxClipIterations = 25;
 
     /// <summary>
     /// Fits the standards with multiplicity <paramref name="weight"/> (0 = not a candidate). Returns null on
@@ -98,9 +116,9 @@ internal sealed class EffectiveVarianceFit
         for (int iter = 1; iter <= MaxClipIterations; iter++)
         {
             ClipIterations = iter;
-            int distinct = 0;
-            for (int i = 0; i < n; i++) if (_active[i]) distinct++;
-            if (distinct < _p + 1) return $"{distinct} standards left for {_p} coefficients (at least {_p + 1} needed)";
+            int kept = 0;
+            for (int i = 0; i < n; i++) if (_active[i]) kept++;
+            if (kept < _p + 1) return $"{kept} standards left for {_p} coefficients (at least {_p + 1} needed)";
             string? err = FitActiveSet(warm: iter > 1);
             if (err is not null) return err;
             double s2 = SigmaInt * SigmaInt;
@@ -116,7 +134,8 @@ internal sealed class EffectiveVarianceFit
             if (!changed) return null;
             for (int i = 0; i < n; i++) if (_w[i] > 0) _active[i] = _candidate[i];
         }
-        return null; // the set oscillates between two states; the last fit stands (rare, reported by iteration count)
+        ClipIterations = MaxClipIterations + 1; // the set oscillates; the last fit stands (the stage warns)
+        return null;
     }
 
     /// <summary>Normalised residual of candidate i at the last fit.</summary>
@@ -177,7 +196,7 @@ internal sealed class EffectiveVarianceFit
                 _gradF[i] = df;
                 _baseVar[i] = _d.VarX[i] + dc * dc * _d.VarC[i] - 2 * dc * _d.Cov[i] + df * df * _d.VarF[i];
             }
-            if ((g > 0 || warm) && maxChange < 1e-8) break;
+            if (((g > 0 || warm) && maxChange < 1e-6) || _gradientFree) break;
         }
         // Residuals of every candidate at the final coefficients.
         for (int i = 0; i < n; i++)
@@ -191,48 +210,48 @@ internal sealed class EffectiveVarianceFit
         return null;
     }
 
-    /// <summary>Solves the weighted normal equations at sigma_int^2 = s2 into _coef and returns -2 ln L (+inf if singular).</summary>
+    /// <summary>
+    /// Solves the weighted normal equations at sigma_int^2 = s2 into _coef and returns -2 ln L (+inf if singular).
+    /// The weighted residual sum of squares at the solution is sum w X^2 - c . (T^T W X), which needs no pass over
+    /// the residuals.
+    /// </summary>
     private double MinusTwoLnL(double s2)
     {
         if (!BuildNormalEquations(s2, solve: true)) return double.PositiveInfinity;
-        int n = _d.N, p = _p;
-        double sum = 0;
-        for (int i = 0; i < n; i++)
-        {
-            if (!_active[i]) continue;
-            double f = 0;
-            int o = i * p;
-            for (int k = 0; k < p; k++) f += _coef[k] * _terms[o + k];
-            double r = _d.X[i] - f, v = _baseVar[i] + s2;
-            sum += _w[i] * (r * r / v + Math.Log(v));
-        }
-        return sum;
+        double rss = _sxx;
+        for (int k = 0; k < _p; k++) rss -= _coef[k] * _rhs[k];
+        return Math.Max(rss, 0) + _logDet;
     }
+
+    private double _sxx, _logDet;
+    private readonly double[] _rhs;
 
     private bool BuildNormalEquations(double s2, bool solve)
     {
-        int n = _d.N, p = _p;
-        var a = _a.AsSpan();
-        a.Clear();
-        Span<double> rhs = _coef;
-        rhs.Clear();
+        int n = _d.N, p = _p, tri = p * (p + 1) / 2, stride = _stride;
+        Span<double> acc = stackalloc double[stride];
+        acc.Clear();
+        double logDet = 0;
         for (int i = 0; i < n; i++)
         {
             if (!_active[i]) continue;
-            double w = _w[i] / (_baseVar[i] + s2);
-            int o = i * p;
-            double wx = w * _d.X[i];
-            for (int r = 0; r < p; r++)
-            {
-                double wt = w * _terms[o + r];
-                rhs[r] += wx * _terms[o + r];
-                int row = r * p;
-                for (int c = 0; c <= r; c++) a[row + c] += wt * _terms[o + c];
-            }
+            double v = _baseVar[i] + s2;
+            double w = _w[i] / v;
+            logDet += _w[i] * Math.Log(v);
+            var o = new ReadOnlySpan<double>(_outer, i * stride, stride);
+            for (int k = 0; k < stride; k++) acc[k] += w * o[k];
         }
+        var a = _a.AsSpan();
+        int q = 0;
+        for (int r = 0; r < p; r++)
+            for (int c = 0; c <= r; c++) a[r * p + c] = acc[q++];
+        for (int r = 0; r < p; r++) _rhs[r] = acc[tri + r];
+        _sxx = acc[tri + p];
+        _logDet = logDet;
         if (!solve) return true;
         if (!SmallCholesky.Factor(a, p)) return false;
-        SmallCholesky.Solve(a, p, rhs);
+        _rhs.AsSpan().CopyTo(_coef);
+        SmallCholesky.Solve(a, p, _coef);
         return true;
     }
 }

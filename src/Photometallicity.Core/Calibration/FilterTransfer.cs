@@ -15,7 +15,8 @@ namespace Photometallicity.Calibration;
 /// f_new(C_new, F) = (f_old(a0 + a1 C_new, F) - b0 - b2 C_new) / b1, a polynomial of the same degree. It is refitted
 /// by least squares on a dense (C_new, F) grid over the transformed domain (exact up to round-off), for the best fit
 /// and for each ensemble member with its own drawn transformation, so the transformation's uncertainty enters the
-/// ensemble.</para>
+/// ensemble. The index transformation's scatter beyond the measurement errors adds to the intrinsic scatter:
+/// sigma_int,new = sqrt(sigma_int,old^2 + s_t^2) / |b1|.</para>
 /// </summary>
 public static class FilterTransfer
 {
@@ -38,7 +39,7 @@ public static class FilterTransfer
 
         var w = new double[n];
         foreach (int i in ok) w[i] = 1;
-        var best = FitOnce(stars, w, out var covA, out var covB, out double rmsC, out double rmsX)
+        var best = FitOnce(stars, w, out var covA, out var covB, out double rmsC, out double rmsX, out double scatterX)
             ?? throw new MethodException("The filter transformation is degenerate: the common stars' colours and indices are collinear.");
         var ens = new List<double[]>(bootstrap);
         var draw = new double[n];
@@ -49,19 +50,19 @@ public static class FilterTransfer
             {
                 Array.Clear(draw);
                 for (int k = 0; k < ok.Length; k++) draw[ok[rng.NextInt(ok.Length)]] += 1;
-                var q = FitOnce(stars, draw, out _, out _, out _, out _);
+                var q = FitOnce(stars, draw, out _, out _, out _, out _, out _);
                 if (q is not null) { ens.Add(q); break; }
             }
         }
-        return new FilterTransform(best[0], best[1], best[2], best[3], best[4], covA, covB, rmsC, rmsX, ok.Length, ens.ToArray());
+        return new FilterTransform(best[0], best[1], best[2], best[3], best[4], covA, covB, rmsC, rmsX, scatterX, ok.Length, ens.ToArray());
     }
 
-    private static double[]? FitOnce(TransferStars s, double[] mult, out double[] covA, out double[] covB, out double rmsC, out double rmsX)
+    private static double[]? FitOnce(TransferStars s, double[] mult, out double[] covA, out double[] covB, out double rmsC, out double rmsX, out double scatterX)
     {
         int n = s.Count;
         covA = new double[4];
         covB = new double[9];
-        rmsC = rmsX = double.NaN;
+        rmsC = rmsX = scatterX = double.NaN;
         Span<double> a = stackalloc double[2];
         Span<double> bq = stackalloc double[3];
         a[0] = 0; a[1] = 1; bq[0] = 0; bq[1] = 1; bq[2] = 0;
@@ -70,11 +71,11 @@ public static class FilterTransfer
         {
             double a1 = a[1];
             if (!Solve(2, i => s.OldColour0[i], (i, r) => { r[0] = 1; r[1] = s.NewColour0[i]; },
-                    i => s.VarOldColour[i] + a1 * a1 * s.VarNewColour[i], mult, n, a, covA, out rmsC)) return null;
+                    i => s.VarOldColour[i] + a1 * a1 * s.VarNewColour[i], mult, n, a, covA, out rmsC, out _)) return null;
             double b1 = bq[1], b2 = bq[2];
             if (!Solve(3, i => s.OldIndex0[i], (i, r) => { r[0] = 1; r[1] = s.NewIndex0[i]; r[2] = s.NewColour0[i]; },
                     i => s.VarOldIndex[i] + b1 * b1 * s.VarNewIndex[i] + b2 * b2 * s.VarNewColour[i] + 2 * b1 * b2 * (s.CovNewIndexColour?[i] ?? 0),
-                    mult, n, bq, covB, out rmsX)) return null;
+                    mult, n, bq, covB, out rmsX, out scatterX)) return null;
         }
         return [a[0], a[1], bq[0], bq[1], bq[2]];
     }
@@ -83,7 +84,7 @@ public static class FilterTransfer
 
     /// <summary>Weighted least squares of y on the design rows, weights mult_i / var_i; covariance scaled by max(1, chi^2_nu).</summary>
     private static bool Solve(int p, Func<int, double> y, RowFn design, Func<int, double> variance, double[] mult, int n,
-        Span<double> x, double[] cov, out double rms)
+        Span<double> x, double[] cov, out double rms, out double scatter)
     {
         Span<double> A = stackalloc double[p * p];
         Span<double> rhs = stackalloc double[p];
@@ -103,11 +104,11 @@ public static class FilterTransfer
             }
             wsum += mult[i];
         }
-        rms = double.NaN;
+        rms = scatter = double.NaN;
         if (!SmallCholesky.Factor(A, p)) return false;
         rhs.CopyTo(x);
         SmallCholesky.Solve(A, p, x);
-        double chi2 = 0, ss = 0;
+        double chi2 = 0, ss = 0, excess = 0;
         for (int i = 0; i < n; i++)
         {
             if (mult[i] <= 0) continue;
@@ -117,8 +118,11 @@ public static class FilterTransfer
             double d = y(i) - f, v = variance(i);
             chi2 += mult[i] * d * d / (v > 0 ? v : 1e-12);
             ss += mult[i] * d * d;
+            excess += mult[i] * (d * d - v);
         }
         rms = Math.Sqrt(ss / wsum);
+        // Scatter beyond the measurement errors by moments: sqrt(max(0, mean(r^2 - var))) (common practice).
+        scatter = Math.Sqrt(Math.Max(0, excess / wsum));
         SmallCholesky.Inverse(A, p, cov);
         double scale = wsum > p ? Math.Max(1.0, chi2 / (wsum - p)) : 1.0;
         for (int k = 0; k < cov.Length; k++) cov[k] *= scale;
@@ -144,14 +148,13 @@ public static class FilterTransfer
         // transformation's own uncertainty gives the mapped best fit (first order, independent contributions).
         var m = new double[p * ob.Count];
         var unit = new double[ob.Count];
-        var lin = t with { B0 = 0, B2 = 0 };
-        var baseline = grid.Refit(ob, unit, lin);
+        var lin = t with { B0 = 0, B2 = 0 }; // the part of the map that is linear in the old coefficients
         for (int k = 0; k < ob.Count; k++)
         {
             unit[k] = 1;
             var col = grid.Refit(ob, unit, lin);
             unit[k] = 0;
-            for (int j = 0; j < p; j++) m[j * ob.Count + k] = col[j] - baseline[j];
+            for (int j = 0; j < p; j++) m[j * ob.Count + k] = col[j];
         }
         var cov = new double[p * p];
         for (int i = 0; i < p; i++)
@@ -184,7 +187,7 @@ public static class FilterTransfer
                 draw = FilterTransform.FromParameters(t.Ensemble[rng.NextInt(t.Ensemble.Length)], t);
             }
             ens[e] = grid.Refit(ob, old.EnsembleCoefficients[e], draw);
-            ensSigma[e] = old.EnsembleSigmaInt[e] / Math.Abs(draw.B1);
+            ensSigma[e] = Math.Sqrt(old.EnsembleSigmaInt[e] * old.EnsembleSigmaInt[e] + t.IndexScatter * t.IndexScatter) / Math.Abs(draw.B1);
         }
 
         var prov = new SortedDictionary<string, string>(old.Provenance.ToDictionary(kv => kv.Key, kv => kv.Value), StringComparer.Ordinal)
@@ -199,7 +202,7 @@ public static class FilterTransfer
             Basis = nb,
             Coefficients = coef,
             CoefficientCovariance = cov,
-            SigmaInt = old.SigmaInt / Math.Abs(t.B1),
+            SigmaInt = Math.Sqrt(old.SigmaInt * old.SigmaInt + t.IndexScatter * t.IndexScatter) / Math.Abs(t.B1),
             EnsembleCoefficients = ens,
             EnsembleSigmaInt = ensSigma,
             Domain = new ValidityDomain(hull, excluded),

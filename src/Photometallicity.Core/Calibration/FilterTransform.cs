@@ -23,12 +23,13 @@ public sealed class TransferStars
 /// <summary>
 /// Linear transformation from a new filter set to an old one, with colour terms:
 /// C_old = A0 + A1 C_new and X_old = B0 + B1 X_new + B2 C_new (mag). Ensemble: bootstrap draws of
-/// (A0, A1, B0, B1, B2) from resampling the common stars.
+/// (A0, A1, B0, B1, B2) from resampling the common stars. RmsColour, RmsIndex: residual RMS (mag); IndexScatter:
+/// scatter of the index transformation beyond the measurement errors (mag, in old-index units).
 /// </summary>
 public sealed record FilterTransform(
     double A0, double A1, double B0, double B1, double B2,
     double[] ColourCovariance, double[] IndexCovariance,
-    double RmsColour, double RmsIndex, int Stars, double[][] Ensemble)
+    double RmsColour, double RmsIndex, double IndexScatter, int Stars, double[][] Ensemble)
 {
     public double OldColour(double newColour) => A0 + A1 * newColour;
     public double NewColour(double oldColour) => (oldColour - A0) / A1;

@@ -99,7 +99,7 @@ public static class DemoGenerator
         broad.Add(new Column<double>("ebv", ebv, unit: "mag"));
 
         var narrow = MakeNarrow(rng, truth, tangent, ra, dec, narrowTrue, errN);
-        var standards = MakeStandards(rng, id, ra, dec, b, member, fehTrue);
+        var standards = MakeStandards(rng, id, ra, dec, b, member, fehTrue, colourTrue);
 
         var starTruth = new Table(stars, "truth_stars.csv");
         starTruth.Add(new Column<string>("src", id));
@@ -146,25 +146,25 @@ public static class DemoGenerator
         return t;
     }
 
-    private static Table MakeStandards(Rng rng, string[] id, double[] ra, double[] dec, double[] blue, bool[] member, double[] fehTrue)
+    private static Table MakeStandards(Rng rng, string[] id, double[] ra, double[] dec, double[] blue, bool[] member, double[] fehTrue, double[] colour)
     {
         // An invented spectroscopic survey: bright member giants, chosen to spread over [Fe/H] (weights ~ 1/density),
         // plus a few bad standards (binaries, bad spectra: wrong [Fe/H]; foreground dwarfs mistaken for members).
-        var bright = Enumerable.Range(0, id.Length).Where(i => member[i] && blue[i] < 21.4).ToArray();
+        var bright = Enumerable.Range(0, id.Length).Where(i => member[i] && blue[i] < 22.2).ToArray();
         var picked = new List<int>();
         foreach (int i in bright)
         {
             double z = (fehTrue[i] + 1.65) / 0.38;
-            double w = Math.Min(1.0, 0.08 * Math.Exp(0.5 * z * z));
+            double w = Math.Min(1.0, 0.12 * Math.Exp(0.5 * z * z));
             if (rng.NextDouble() < w) picked.Add(i);
-            if (picked.Count >= 140) break;
+            if (picked.Count >= 150) break;
         }
-        var dwarfs = Enumerable.Range(0, id.Length).Where(i => !member[i] && blue[i] < 21.0).Take(3).ToList();
+        var dwarfs = Enumerable.Range(0, id.Length).Where(i => !member[i] && blue[i] < 21.5 && colour[i] > 0.75 && colour[i] < 1.1).Take(3).ToList();
         var rows = new List<(string Id, double Ra, double Dec, double Feh, double Err, string Note)>();
         int bad = 0;
         foreach (int i in picked)
         {
-            double err = 0.08 + 0.10 * rng.NextDouble();
+            double err = 0.05 + 0.07 * rng.NextDouble();
             double feh = fehTrue[i] + rng.NextGaussian(0, err);
             string note = "ok";
             if (bad < 6 && rng.NextDouble() < 0.06)

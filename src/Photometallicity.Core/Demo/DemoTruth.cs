@@ -22,9 +22,9 @@ public sealed record DemoTruth
     public double OffsetRaCosDecArcsec { get; init; } = 0.35;  // narrow minus broadband, invented
     public double OffsetDecArcsec { get; init; } = -0.22;      // narrow minus broadband, invented
     public double MeanEbv { get; init; } = 0.045;        // invented foreground reddening
-    public double BlueDepth5 { get; init; } = 25.0;      // 5-sigma depths (mag), invented
+    public double BlueDepth5 { get; init; } = 25.4;      // 5-sigma depths (mag), invented
     public double RedDepth5 { get; init; } = 24.4;
-    public double NarrowDepth5 { get; init; } = 24.0;
+    public double NarrowDepth5 { get; init; } = 24.8;
     public double ErrorFloor { get; init; } = 0.008;
     /// <summary>
     /// Extinction coefficients A/E(B-V) used to redden the invented stars (blue, red, narrow): those of the invented

@@ -13,6 +13,19 @@ internal static class ChunkedReduction
     public static double[] Sum(int count, int width, int maxThreads, Action<int, int, double[]> body)
     {
         int chunks = (count + ChunkSize - 1) / ChunkSize;
+        if (chunks <= 1 || maxThreads == 1)
+        {
+            // same chunks, same order of addition: identical to the parallel result
+            var sum = new double[width];
+            for (int c = 0; c < chunks; c++)
+            {
+                var acc1 = new double[width];
+                int s0 = c * ChunkSize;
+                body(s0, Math.Min(count, s0 + ChunkSize), acc1);
+                for (int k = 0; k < width; k++) sum[k] += acc1[k];
+            }
+            return sum;
+        }
         var partial = new double[chunks][];
         var po = new ParallelOptions { MaxDegreeOfParallelism = maxThreads > 0 ? maxThreads : -1 };
         Parallel.For(0, chunks, po, c =>

@@ -5,7 +5,7 @@ namespace Photometallicity.Membership;
 /// a cell counting as covered when it holds a star; empty cells enclosed by covered ones (gaps, masks around bright
 /// stars, Poisson-empty cells) are filled, found as the empty cells not reachable from the grid border
 /// (flood fill, common practice). The footprint's area is the number of covered cells times the cell area, and a
-/// surface-density profile is integrated over the covered cells numerically with an adaptive midpoint rule
+/// surface-density profile is integrated over the covered cells numerically with an adaptive product Gauss rule
 /// (each cell is split into quarters until it is small against the profile's local scale).
 /// </summary>
 public sealed class Footprint
@@ -131,7 +131,12 @@ public sealed class Footprint
         double dx = cx - p.X0, dy = cy - p.Y0;
         double dist = Math.Sqrt(dx * dx + dy * dy) - 0.7072 * side;
         // Fine enough when the cell is small against the local scale of the profile (its core or the distance).
-        if (depth >= 10 || side <= 0.3 * Math.Max(scale, dist)) return p.Density(cx, cy) * side * side;
+        if (depth >= 10 || side <= 0.25 * Math.Max(scale, dist))
+        {
+            // 2 x 2 Gauss-Legendre product rule (nodes at +-1/sqrt(3) of the half-side, weights 1; Abramowitz &amp; Stegun 1964, 25.4.29)
+            double g = side * 0.28867513459481287; // side / (2 sqrt 3)
+            return 0.25 * side * side * (p.Density(cx - g, cy - g) + p.Density(cx + g, cy - g) + p.Density(cx - g, cy + g) + p.Density(cx + g, cy + g));
+        }
         double q = 0.25 * side, hs = 0.5 * side;
         return IntegrateCell(p, cx - q, cy - q, hs, scale, depth + 1) + IntegrateCell(p, cx + q, cy - q, hs, scale, depth + 1)
              + IntegrateCell(p, cx - q, cy + q, hs, scale, depth + 1) + IntegrateCell(p, cx + q, cy + q, hs, scale, depth + 1);

@@ -3,13 +3,12 @@ namespace Photometallicity.Membership;
 /// <summary>
 /// The foreground's colour-magnitude density, estimated non-parametrically from stars of the outer region:
 /// a weighted 2-D histogram on the <see cref="CmdWindow"/>, smoothed by a Gaussian kernel of fixed width
-/// (one bin in each axis; common practice for Hess diagrams), plus a floor of 1% of the mean density so that no
+/// (<see cref="CmdWindow.KernelBins"/> bins, i.e. the Scott's-rule bandwidth, in each axis), plus a floor of 1% of the mean density so that no
 /// part of the window has zero foreground probability, and normalised to unit integral over the window.
 /// Stars outside the window get the floor density.
 /// </summary>
 internal sealed class ForegroundCmdDensity
 {
-    public const double KernelSigmaBins = 1.0;
     public const double FloorFraction = 0.01;
 
     private readonly double[] _density;
@@ -34,7 +33,7 @@ internal sealed class ForegroundCmdDensity
             int b = bin[i];
             if (b >= 0) h[b] += weight(i);
         }
-        var sm = Smooth(h, nc, nm, KernelSigmaBins);
+        var sm = Smooth(h, nc, nm, CmdWindow.KernelBins);
         double total = sm.Sum();
         double area = window.DC * window.DM;
         double windowArea = area * nc * nm;

@@ -81,8 +81,7 @@ internal sealed class MixtureData
         if (cmdRows.Length < 20)
             throw new Errors.MethodException($"The membership fit needs stars with colour and magnitude; {cmdRows.Length} of {n} rows have them (at least 20 needed).");
         var fp = Footprint.FromPoints(x, y);
-        int bins = Math.Clamp((int)Math.Sqrt(cmdRows.Length / 40.0), 8, 48);
-        var window = CmdWindow.FromData(inp.Colour0, inp.Mag, cmdRows, bins, bins);
+        var window = CmdWindow.FromData(inp.Colour0, inp.Mag, cmdRows);
         var bin = new int[n];
         for (int i = 0; i < n; i++) bin[i] = hasCmd[i] ? window.Bin(inp.Colour0[i], inp.Mag[i]) : -1;
         return new MixtureData

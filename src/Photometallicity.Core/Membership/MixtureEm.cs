@@ -38,12 +38,18 @@ internal sealed class MixtureEm
         double tol = tolPerStar * _d.Positioned.Length + 1e-6;
         double prev = double.NegativeInfinity;
         var lastMove = new double[] { 0.1 * p.Profile.HalfLight, 0.1 * p.Profile.HalfLight, 0.1, 0.05, 0.05 };
+        _spatialGain = double.PositiveInfinity;
+        _sinceSpatial = -1;
         for (int it = 1; it <= maxIter; it++)
         {
             var acc = MixtureEStep.Run(_d, p, fgCmdLog, _useFeh, _threads, R, OtherT, OtherF);
             LastStats = acc;
             LogLikelihood = acc[MixtureEStep.LogL];
-            if (Math.Abs(LogLikelihood - prev) <= tol) return (it, true);
+            if (Math.Abs(LogLikelihood - prev) <= tol)
+            {
+                if (_sinceSpatial == 0) return (it, true);
+                _sinceSpatial = 4; // converged with the spatial step skipped: run it before stopping
+            }
             prev = LogLikelihood;
             MStep(p, acc, lastMove);
         }
@@ -58,19 +64,12 @@ internal sealed class MixtureEm
         int n = d.Positioned.Length;
         p.Fraction = Math.Clamp(acc[MixtureEStep.SumR] / n, 1e-9, 1 - 1e-9);
 
-        var before = p.Profile;
-        p.Profile = SpatialMStep.Run(d, R, p.Profile, _bounds, _threads, 160, out double phi, lastMove);
-        p.FootprintFraction = phi;
-        var now = p.Profile;
-        double rh = now.HalfLight;
-        // next simplex: a few times the last move, never below a small fraction of the scale
-        lastMove[0] = Math.Max(3 * Math.Abs(now.X0 - before.X0), 0.005 * rh);
-        lastMove[1] = Math.Max(3 * Math.Abs(now.Y0 - before.Y0), 0.005 * rh);
-        lastMove[2] = Math.Max(3 * Math.Abs(Math.Log(now.HalfLight / before.HalfLight)), 0.005);
-        lastMove[3] = Math.Max(3 * Math.Abs(now.K1 - before.K1), 0.003);
-        lastMove[4] = Math.Max(3 * Math.Abs(now.K2 - before.K2), 0.003);
-
+        // The spatial search is the costly sub-step; once it gains little it runs every fourth iteration only
+        // (skipping a sub-step keeps the ascent: the parameters simply stay where they are).
+        _sinceSpatial++;
+        if (_spatialGain > SpatialGainForEveryIteration || _sinceSpatial >= 4) SpatialStep(p, lastMove);
         p.Ridge.Update(d.Mag, d.Colour, d.VarColour, d.CmdRows, R);
+
         if (acc[MixtureEStep.SumRCmd] > 1e-9) p.Lf = p.Lf.Fit(acc[MixtureEStep.SumRMag] / acc[MixtureEStep.SumRCmd]);
 
         if (_useFeh)
@@ -92,5 +91,26 @@ internal sealed class MixtureEm
             var r = R;
             p.FgPlx.Update(d.Plx, d.VarPlx, d.PlxRows, i => 1 - r[i]);
         }
+    }
+
+    private const double SpatialGainForEveryIteration = 0.05;
+    private double _spatialGain;
+    private int _sinceSpatial;
+
+    private void SpatialStep(MixtureParameters p, double[] lastMove)
+    {
+        var before = p.Profile;
+        p.Profile = SpatialMStep.Run(_d, R, p.Profile, _bounds, _threads, 120, out double phi, lastMove, out double gain);
+        p.FootprintFraction = phi;
+        _spatialGain = gain;
+        _sinceSpatial = 0;
+        var now = p.Profile;
+        double rh = now.HalfLight;
+        // next simplex: a few times the last move, never below a small fraction of the scale
+        lastMove[0] = Math.Max(3 * Math.Abs(now.X0 - before.X0), 0.005 * rh);
+        lastMove[1] = Math.Max(3 * Math.Abs(now.Y0 - before.Y0), 0.005 * rh);
+        lastMove[2] = Math.Max(3 * Math.Abs(Math.Log(now.HalfLight / before.HalfLight)), 0.005);
+        lastMove[3] = Math.Max(3 * Math.Abs(now.K1 - before.K1), 0.003);
+        lastMove[4] = Math.Max(3 * Math.Abs(now.K2 - before.K2), 0.003);
     }
 }

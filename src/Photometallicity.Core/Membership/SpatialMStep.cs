@@ -13,9 +13,12 @@ internal static class SpatialMStep
 {
     public const int MaxStars = 60_000;
 
+    /// <summary>Simplex spread in Q (log-likelihood units) at which the search stops: far below one unit of ln L.</summary>
+    public const double FunctionTolerance = 1e-3;
+
     public readonly record struct Bounds(double XMin, double XMax, double YMin, double YMax, double LnAMin, double LnAMax, double KMax);
 
-    public static SurfaceDensityProfile Run(MixtureData d, double[] r, SurfaceDensityProfile start, Bounds bounds, int threads, int maxEvals, out double phi, double[]? step = null)
+    public static SurfaceDensityProfile Run(MixtureData d, double[] r, SurfaceDensityProfile start, Bounds bounds, int threads, int maxEvals, out double phi, double[]? step, out double gain)
     {
         var cand = new List<int>();
         double rTotal = 0;
@@ -62,7 +65,9 @@ internal static class SpatialMStep
         var x0 = new[] { start.X0, start.Y0, Math.Log(start.HalfLight), start.K1, start.K2 };
         double h = start.HalfLight;
         step ??= [0.1 * h, 0.1 * h, 0.1, 0.05, 0.05];
-        var (best, _, _) = NelderMead.Minimise(Objective, x0, step, 1e-5, maxEvals);
+        double q0 = Objective(x0);
+        var (best, qBest, _) = NelderMead.Minimise(Objective, x0, step, FunctionTolerance, maxEvals);
+        gain = q0 - qBest;
         var result = new SurfaceDensityProfile(kind, best[0], best[1], Math.Exp(best[2]), best[3], best[4]);
         phi = d.Footprint.Integrate(result.CreateEvaluator());
         return result;

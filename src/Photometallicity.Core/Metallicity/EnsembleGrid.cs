@@ -13,6 +13,8 @@ namespace Photometallicity.Metallicity;
 /// Also kept: the best-fit model on the same nodes, the pointwise minimum and maximum over members (monotone in [Fe/H]
 /// wherever every member is, so the star's window can be found by bisection), and the range of the colour slopes.
 /// Rows are padded by one SIMD width so vector loops may run past a window's end without bounds checks.
+/// Besides the full table (stride 1), decimated copies hold every 2nd, 4th, ... grid point, so that broad likelihoods can be
+/// evaluated on fewer points and interpolated (see <see cref="LikelihoodKernel"/>); together they cost less than the full table.
 /// </summary>
 internal sealed class EnsembleGrid
 {
@@ -29,9 +31,8 @@ internal sealed class EnsembleGrid
     public required int FehCount { get; init; }
     public required int RowStride { get; init; }
 
-    /// <summary>f_m(c_k, F_j) at [(k * Members + m) * RowStride + j].</summary>
-    public required float[] Value { get; init; }
-    public required float[] Slope { get; init; }
+    /// <summary>Level 0 is the full table; level L holds every 2^L-th point.</summary>
+    public required GridLevel[] Levels { get; init; }
     public required float[] SigmaInt2 { get; init; }
 
     /// <summary>Best-fit model and its colour slope at [k * RowStride + j].</summary>
@@ -42,9 +43,16 @@ internal sealed class EnsembleGrid
 
     /// <summary>+1 where the envelopes at node k rise with [Fe/H], -1 where they fall, 0 where they are not monotonic.</summary>
     public required sbyte[] Direction { get; init; }
+
+    /// <summary>Largest |df_m/dF| over members between points j and j + 1 at node k, [k * RowStride + j] (mag/dex).</summary>
+    public required float[] FehSlopeMax { get; init; }
+
+    /// <summary>Variance of f_m over the members at node k and point j, [k * RowStride + j] (mag^2).</summary>
+    public required float[] EnsembleVariance { get; init; }
     public required double[] SlopeMin { get; init; }
     public required double[] SlopeMax { get; init; }
     public required double SigmaInt2Max { get; init; }
+    public required double SigmaInt2Min { get; init; }
 
     public static EnsembleGrid Build(CalibrationModel model, MetallicityOptions options, double gridMin, double gridStep, int gridCount)
     {
@@ -70,8 +78,11 @@ internal sealed class EnsembleGrid
         h = cmax > cmin ? (cmax - cmin) / (nc - 1) : 1.0;
         int m = ens.Length;
 
-        var value = new float[(long)nc * m * stride];
-        var slope = new float[value.LongLength];
+        int levelCount = Math.Max(1, BitOperations.Log2((uint)Math.Max(1, options.MaxEvaluationStride)) + 1);
+        var levels = new GridLevel[levelCount];
+        for (int l = 0; l < levelCount; l++) levels[l] = new GridLevel(1 << l, nf, nc, m);
+        var fehSlope = new float[nc * stride];
+        var ensVar = new float[nc * stride];
         var best = new double[nc * stride];
         var bestSlope = new double[nc * stride];
         var envMin = new float[nc * stride];
@@ -91,38 +102,63 @@ internal sealed class EnsembleGrid
             lo.Fill(float.PositiveInfinity);
             hi.Fill(float.NegativeInfinity);
             double g0 = double.PositiveInfinity, g1 = double.NegativeInfinity;
+            var sum = new double[nf];
+            var sum2 = new double[nf];
             for (int mm = 0; mm < m; mm++)
             {
                 var s = new ColourSlice(model.Basis, ens[mm], c);
-                long row = ((long)k * m + mm) * stride;
+                var full = levels[0];
+                long row = full.Row(k, mm);
                 for (int j = 0; j < nf; j++)
                 {
                     var (f, g) = s.At(gridMin + (first + j) * gridStep);
-                    value[row + j] = (float)f;
-                    slope[row + j] = (float)g;
+                    full.Value[row + j] = (float)f;
+                    full.Slope[row + j] = (float)g;
+                    sum[j] += f;
+                    sum2[j] += f * f;
                     lo[j] = Math.Min(lo[j], (float)f);
                     hi[j] = Math.Max(hi[j], (float)f);
                     g0 = Math.Min(g0, g);
                     g1 = Math.Max(g1, g);
+                    if (j > 0)
+                    {
+                        float sf = (float)Math.Abs((f - full.Value[row + j - 1]) / gridStep);
+                        fehSlope[k * stride + j - 1] = Math.Max(fehSlope[k * stride + j - 1], sf);
+                    }
+                }
+                // Decimated levels (their last point may lie up to stride - 1 steps beyond the table's end).
+                for (int l = 1; l < levels.Length; l++)
+                {
+                    var lv = levels[l];
+                    long r = lv.Row(k, mm);
+                    for (int i = 0; i < lv.Count; i++)
+                    {
+                        var (f, g) = s.At(gridMin + (first + i * lv.Stride) * gridStep);
+                        lv.Value[r + i] = (float)f;
+                        lv.Slope[r + i] = (float)g;
+                    }
                 }
             }
+            fehSlope[k * stride + nf - 1] = fehSlope[k * stride + nf - 2];
+            for (int j = 0; j < nf; j++) ensVar[k * stride + j] = (float)Math.Max(0, sum2[j] / m - (sum[j] / m) * (sum[j] / m));
             gmin[k] = g0;
             gmax[k] = g1;
             dir[k] = Monotonic(lo, hi);
         });
 
         var sint2 = new float[m];
-        double sMax = 0;
+        double sMax = 0, sMin = double.PositiveInfinity;
         for (int mm = 0; mm < m; mm++)
         {
             double s = model.EnsembleSigmaInt[mm];
             sint2[mm] = (float)(s * s);
             sMax = Math.Max(sMax, s * s);
+            sMin = Math.Min(sMin, s * s);
         }
         return new EnsembleGrid
         {
             Members = m, ColourNodes = nc, ColourMin = cmin, ColourStep = h, FehFirst = first, FehCount = nf, RowStride = stride,
-            Value = value, Slope = slope, SigmaInt2 = sint2, BestValue = best, BestSlope = bestSlope,
+            Levels = levels, FehSlopeMax = fehSlope, EnsembleVariance = ensVar, SigmaInt2 = sint2, SigmaInt2Min = sMin, BestValue = best, BestSlope = bestSlope,
             EnvelopeMin = envMin, EnvelopeMax = envMax, Direction = dir, SlopeMin = gmin, SlopeMax = gmax, SigmaInt2Max = sMax,
         };
     }
@@ -166,4 +202,31 @@ internal sealed class EnsembleGrid
         double h = curv > 0 ? Math.Sqrt(8 * tol / curv) : MaxColourStep;
         return Math.Clamp(h, MinColourStep, MaxColourStep);
     }
+}
+
+/// <summary>One table of the ensemble at every <see cref="Stride"/>-th [Fe/H] point: Count points per row, padded rows.</summary>
+internal sealed class GridLevel
+{
+    public GridLevel(int stride, int fullCount, int nodes, int members)
+    {
+        Stride = stride;
+        Count = (fullCount - 1 + stride - 1) / stride + 1;
+        RowStride = Count + Vector<float>.Count;
+        Members = members;
+        Value = new float[(long)nodes * members * RowStride];
+        Slope = new float[Value.LongLength];
+    }
+
+    public int Stride { get; }
+    public int Count { get; }
+    public int RowStride { get; }
+    public int Members { get; }
+
+    /// <summary>f_m(c_k, F_(i * Stride)) at [Row(k, m) + i].</summary>
+    public float[] Value { get; }
+
+    /// <summary>df_m/dC at the same places.</summary>
+    public float[] Slope { get; }
+
+    public long Row(int k, int m) => ((long)k * Members + m) * RowStride;
 }

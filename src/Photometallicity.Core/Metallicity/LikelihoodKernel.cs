@@ -13,40 +13,139 @@ namespace Photometallicity.Metallicity;
 /// Only grid points within a window where some member has |X0 - f_m| &lt; W sigma_max are evaluated; outside it every term is
 /// below exp(-W^2/2) of its own peak. Inner loop in float with System.Numerics.Vector (float keeps ~1e-7 relative precision:
 /// the residual X0 - f is ~1e-7 mag accurate and the likelihood ratio ~1e-6, far below what the percentiles need).
+/// Stars are processed in batches, member-outer: one member's rows stay in the fastest cache while every star of the batch
+/// reads them (stars of a batch mostly share a colour node, as the assigner sorts them by colour).
 /// One instance per thread (it owns scratch space).
 /// </summary>
 internal sealed class LikelihoodKernel
 {
-    private readonly EnsembleGrid _g;
-    private readonly float[] _acc;
+    public const int BatchCapacity = 32;
 
-    public LikelihoodKernel(EnsembleGrid grid)
+    private readonly EnsembleGrid _g;
+    private readonly double _pointsPerSigma;
+    private readonly double _gridStep;
+    private readonly StarTask[] _tasks = new StarTask[BatchCapacity];
+    private readonly float[][] _acc = new float[BatchCapacity][];
+    private readonly float[] _fine;
+
+    private readonly double _subsetTol;
+    private readonly int _minSubset;
+
+    public LikelihoodKernel(EnsembleGrid grid, double pointsPerSigma, double gridStep, double subsetTolerance, int minSubset)
     {
+        _subsetTol = subsetTolerance;
+        _minSubset = minSubset;
         _g = grid;
-        _acc = new float[grid.RowStride + Vector<float>.Count];
+        _pointsPerSigma = pointsPerSigma;
+        _gridStep = gridStep;
+        for (int i = 0; i < BatchCapacity; i++) _acc[i] = new float[grid.RowStride + Vector<float>.Count];
+        _fine = new float[grid.RowStride + Vector<float>.Count];
     }
 
-    /// <summary>The accumulated likelihood (up to a constant) at tabulated points a .. b - 1 after <see cref="Evaluate"/>.</summary>
-    public ReadOnlySpan<float> Values(int a, int b) => _acc.AsSpan(a, b - a);
+    /// <summary>Stars queued for <see cref="AccumulateBatch"/>.</summary>
+    public int Queued { get; private set; }
+
+    /// <summary>One queued star: colour node and weight, inputs in float, fine window [A, B), evaluated points [Ia, Ib] of Level.</summary>
+    private struct StarTask
+    {
+        public int K, A, B, Level, Ia, Ib, FirstMember, MemberCount;
+        public float T, X0, VarX, VarC, Cov;
+    }
 
     /// <summary>
-    /// Finds the window [a, b) inside the star's [j0, j1] (tabulated indices) and accumulates the likelihood there.
-    /// Returns false when the window is empty (the index is more than W sigma beyond every member).
+    /// Finds the window [a, b) inside the star's [j0, j1] (tabulated indices) and queues the star. Returns false (nothing
+    /// queued) when the window is empty: the index is more than W sigma beyond every member.
     /// </summary>
-    public bool Evaluate(int k, float t, double x0, double varX, double varC, double cov, int j0, int j1, double windowSigmas, out int a, out int b)
+    public bool Queue(int star, int k, float t, double x0, double varX, double varC, double cov, int j0, int j1, double windowSigmas, out int a, out int b)
     {
         var g = _g;
-        // Largest s^2 over members and the slope range of nodes k, k+1: the quadratic g^2 varC - 2 g cov is convex in g,
-        // so its maximum over an interval sits at an end.
+        // Range of s^2 over members and the slope range of nodes k, k+1: q(g) = g^2 varC - 2 g cov is convex in g, so its
+        // maximum over an interval sits at an end and its minimum at g* = cov / varC when inside, else at an end.
         double gl = Math.Min(g.SlopeMin[k], g.SlopeMin[k + 1]), gh = Math.Max(g.SlopeMax[k], g.SlopeMax[k + 1]);
-        double q = Math.Max(gl * gl * varC - 2 * gl * cov, gh * gh * varC - 2 * gh * cov);
-        double sMax = Math.Sqrt(Math.Max(varX + q + g.SigmaInt2Max, 1e-30));
+        double ql = gl * gl * varC - 2 * gl * cov, qh = gh * gh * varC - 2 * gh * cov;
+        double gs = varC > 0 ? Math.Clamp(cov / varC, gl, gh) : gl;
+        double qMin = Math.Min(Math.Min(ql, qh), gs * gs * varC - 2 * gs * cov);
+        double sMax = Math.Sqrt(Math.Max(varX + Math.Max(ql, qh) + g.SigmaInt2Max, 1e-30));
         float lowX = (float)(x0 - windowSigmas * sMax), highX = (float)(x0 + windowSigmas * sMax);
         FindWindow(k, t, lowX, highX, j0, j1, out a, out b);
         if (b <= a) return false;
-        Accumulate(k, t, (float)x0, (float)varX, (float)varC, (float)cov, a, b);
+
+        // Evaluation stride: the narrowest member likelihood in [Fe/H] is sigma_min / max|df/dF| over the window.
+        float slopeF = 0, tau2 = 0;
+        int rs = g.RowStride;
+        for (int j = a; j < b; j++)
+        {
+            slopeF = Math.Max(slopeF, Math.Max(g.FehSlopeMax[k * rs + j], g.FehSlopeMax[(k + 1) * rs + j]));
+            tau2 = Math.Max(tau2, Math.Max(g.EnsembleVariance[k * rs + j], g.EnsembleVariance[(k + 1) * rs + j]));
+        }
+        double s2Min = Math.Max(varX + qMin + g.SigmaInt2Min, 1e-30);
+        double sMin = Math.Sqrt(s2Min);
+        int members = g.Members;
+        if (_subsetTol > 0)
+        {
+            double need = tau2 / ((s2Min + tau2) * _subsetTol * _subsetTol);
+            members = (int)Math.Clamp(Math.Ceiling(need), Math.Min(_minSubset, g.Members), g.Members);
+        }
+        double perStep = slopeF > 0 ? sMin / slopeF / (_pointsPerSigma * _gridStep) : double.PositiveInfinity;
+        int level = 0;
+        while (level + 1 < g.Levels.Length && (1 << (level + 1)) <= perStep) level++;
+        int stride = g.Levels[level].Stride;
+        _tasks[Queued++] = new StarTask
+        {
+            K = k, T = t, X0 = (float)x0, VarX = (float)varX, VarC = (float)varC, Cov = (float)cov, A = a, B = b, Level = level,
+            Ia = a / stride, Ib = (b - 1 + stride - 1) / stride,
+            MemberCount = members, FirstMember = members == g.Members ? 0 : (int)((long)star * 7919 % g.Members),
+        };
         return true;
     }
+
+    /// <summary>Accumulates every queued star's likelihood, member by member.</summary>
+    public void AccumulateBatch()
+    {
+        for (int q = 0; q < Queued; q++)
+        {
+            ref var s = ref _tasks[q];
+            Array.Clear(_acc[q], s.Ia, VectorSpan(s.Ib + 1 - s.Ia));
+        }
+        int m = _g.Members;
+        for (int mm = 0; mm < m; mm++)
+        {
+            float sint2 = _g.SigmaInt2[mm];
+            for (int q = 0; q < Queued; q++)
+            {
+                ref var s = ref _tasks[q];
+                int rel = mm - s.FirstMember;
+                if (rel < 0) rel += m;
+                if (rel < s.MemberCount) AccumulateMember(ref s, _acc[q], mm, sint2);
+            }
+        }
+    }
+
+    /// <summary>
+    /// The likelihood (up to a constant) of queued star q at fine points A .. B - 1. Where the star was evaluated at a stride,
+    /// ln L is interpolated linearly between the evaluated points.
+    /// </summary>
+    public ReadOnlySpan<float> Result(int q)
+    {
+        ref var s = ref _tasks[q];
+        var acc = _acc[q];
+        int stride = _g.Levels[s.Level].Stride;
+        if (stride == 1) return acc.AsSpan(s.A, s.B - s.A);
+        for (int i = s.Ia; i <= s.Ib; i++) acc[i] = MathF.Log(Math.Max(acc[i], 1e-37f));
+        float inv = 1f / stride;
+        for (int j = s.A; j < s.B; j++)
+        {
+            int i = j / stride;
+            float w = (j - i * stride) * inv;
+            _fine[j] = w == 0 ? MathF.Exp(acc[i]) : MathF.Exp(acc[i] + w * (acc[i + 1] - acc[i]));
+        }
+        return _fine.AsSpan(s.A, s.B - s.A);
+    }
+
+    /// <summary>Empties the queue.</summary>
+    public void Clear() => Queued = 0;
+
+    private static int VectorSpan(int n) => (n + Vector<float>.Count - 1) / Vector<float>.Count * Vector<float>.Count;
 
     private float Env(float[] e, int k, float t, int j)
     {
@@ -96,44 +195,38 @@ internal sealed class LikelihoodKernel
         return l;
     }
 
-    private void Accumulate(int k, float t, float x0, float varX, float varC, float cov, int a, int b)
+    private void AccumulateMember(ref StarTask s, float[] accArr, int mm, float sint2)
     {
-        var g = _g;
+        var lv = _g.Levels[s.Level];
         int w = Vector<float>.Count;
-        int n = b - a;
-        int nv = (n + w - 1) / w;
-        Array.Clear(_acc, a, nv * w);
-        ref float acc = ref MemoryMarshal.GetArrayDataReference(_acc);
-        ref float val = ref MemoryMarshal.GetArrayDataReference(g.Value);
-        ref float slo = ref MemoryMarshal.GetArrayDataReference(g.Slope);
-        var vt = new Vector<float>(t);
-        var vx = new Vector<float>(x0);
-        var vc = new Vector<float>(varC);
-        var v2cov = new Vector<float>(2f * cov);
+        int nv = VectorSpan(s.Ib + 1 - s.Ia) / w;
+        ref float acc = ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(accArr), s.Ia);
+        ref float val = ref MemoryMarshal.GetArrayDataReference(lv.Value);
+        ref float slo = ref MemoryMarshal.GetArrayDataReference(lv.Slope);
+        nuint r0 = (nuint)(lv.Row(s.K, mm) + s.Ia);
+        nuint r1 = (nuint)(lv.Row(s.K + 1, mm) + s.Ia);
+        var vt = new Vector<float>(s.T);
+        var vx = new Vector<float>(s.X0);
+        var vc = new Vector<float>(s.VarC);
+        var v2cov = new Vector<float>(2f * s.Cov);
+        var va = new Vector<float>(s.VarX + sint2);
         var half = new Vector<float>(-0.5f);
         var tiny = new Vector<float>(1e-12f);
-        long m = g.Members, stride = g.RowStride;
-        for (int mm = 0; mm < m; mm++)
+        for (int i = 0; i < nv; i++)
         {
-            nuint r0 = (nuint)(((k * m) + mm) * stride + a);
-            nuint r1 = (nuint)((((k + 1) * m) + mm) * stride + a);
-            var va = new Vector<float>(varX + g.SigmaInt2[mm]);
-            for (int i = 0; i < nv; i++)
-            {
-                nuint o = (nuint)(i * w);
-                var f0 = Vector.LoadUnsafe(ref val, r0 + o);
-                var f1 = Vector.LoadUnsafe(ref val, r1 + o);
-                var s0 = Vector.LoadUnsafe(ref slo, r0 + o);
-                var s1 = Vector.LoadUnsafe(ref slo, r1 + o);
-                var f = f0 + vt * (f1 - f0);
-                var gg = s0 + vt * (s1 - s0);
-                var s2 = Vector.Max(va + gg * (gg * vc - v2cov), tiny);
-                var inv = Vector<float>.One / s2;
-                var d = vx - f;
-                var like = Vector.Exp(half * d * d * inv) * Vector.SquareRoot(inv);
-                ref float dst = ref Unsafe.Add(ref acc, a + i * w);
-                Vector.StoreUnsafe(Vector.LoadUnsafe(ref dst) + like, ref dst);
-            }
+            nuint o = (nuint)(i * w);
+            var f0 = Vector.LoadUnsafe(ref val, r0 + o);
+            var f1 = Vector.LoadUnsafe(ref val, r1 + o);
+            var s0 = Vector.LoadUnsafe(ref slo, r0 + o);
+            var s1 = Vector.LoadUnsafe(ref slo, r1 + o);
+            var f = f0 + vt * (f1 - f0);
+            var gg = s0 + vt * (s1 - s0);
+            var s2 = Vector.Max(va + gg * (gg * vc - v2cov), tiny);
+            var inv = Vector<float>.One / s2;
+            var d = vx - f;
+            var like = FastExp.NonPositive(half * d * d * inv) * Vector.SquareRoot(inv);
+            ref float dst = ref Unsafe.Add(ref acc, i * w);
+            Vector.StoreUnsafe(Vector.LoadUnsafe(ref dst) + like, ref dst);
         }
     }
 }

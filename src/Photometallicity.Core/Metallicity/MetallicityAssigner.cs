@@ -85,19 +85,22 @@ public sealed class MetallicityAssigner
             {
                 var buf = buffers[ci] = new LikelihoodBuffer();
                 int end = Math.Min(n, (ci + 1) * chunk);
-                for (int p = ci * chunk; p < end; p++)
+                void Write(int i, StarSummary s, int st, int len)
                 {
-                    int i = order[p];
-                    StarSummary s;
-                    int st = 0, len = 0;
-                    if (!photometry.IsUsable(i)) s = StarSummary.Without(MetallicityStatus.BadPhotometry);
-                    else s = solver.Solve(photometry.Index0[i], photometry.Colour0[i], photometry.VarIndex[i], photometry.VarColour[i],
-                        photometry.CovIndexColour[i], buf, out st, out len);
                     (status[i], feh[i], lo[i], hi[i], lim[i], side[i]) = (s.Status, s.Feh, s.FehLo, s.FehHi, s.Limit, s.Side);
                     start[i] = st;
                     length[i] = len;
                     offset[i] = buf.Count - len;
                 }
+                for (int p = ci * chunk; p < end; p++)
+                {
+                    int i = order[p];
+                    if (!photometry.IsUsable(i)) Write(i, StarSummary.Without(MetallicityStatus.BadPhotometry), 0, 0);
+                    else if (!solver.TryBegin(i, photometry.Index0[i], photometry.Colour0[i], photometry.VarIndex[i], photometry.VarColour[i],
+                                 photometry.CovIndexColour[i], out var early)) Write(i, early, 0, 0);
+                    if (solver.PendingCount == LikelihoodKernel.BatchCapacity) solver.FinishBatch(buf, Write);
+                }
+                if (solver.PendingCount > 0) solver.FinishBatch(buf, Write);
                 if (progress is not null) progress.Report((double)Interlocked.Add(ref done, end - ci * chunk) / n);
                 return solver;
             },
@@ -135,5 +138,5 @@ public sealed class MetallicityAssigner
 
     /// <summary>One star's summary, without storing its likelihood (for the forecast).</summary>
     internal StarSummary SolveOne(double x0, double c0, double varX, double varC, double cov) =>
-        new StarSolver(_grid, _model, _options, _prior, _truncZ).Solve(x0, c0, varX, varC, cov, null, out _, out _);
+        new StarSolver(_grid, _model, _options, _prior, _truncZ).Solve(x0, c0, varX, varC, cov);
 }

@@ -1,3 +1,4 @@
+using System.Numerics;
 using Photometallicity.Errors;
 
 namespace Photometallicity.Metallicity;
@@ -40,6 +41,29 @@ public sealed record MetallicityOptions
     /// </summary>
     public double ColourInterpolationTolerance { get; init; } = 1e-4;
 
+    /// <summary>
+    /// Largest stride (a power of two, 1 = every grid point) at which a broad likelihood may be evaluated before interpolating
+    /// ln L linearly to the full grid. The stride is the largest power of two leaving at least <see cref="PointsPerSigma"/>
+    /// evaluated points per narrowest member likelihood width sigma_min / max|df/dF|; for a Gaussian, ln L is quadratic and the
+    /// interpolation error is at most 1 / (8 P^2) in ln L (0.2 % for P = 8).
+    /// </summary>
+    public int MaxEvaluationStride { get; init; } = 16;
+
+    /// <summary>Evaluated points per narrowest likelihood width (see <see cref="MaxEvaluationStride"/>).</summary>
+    public double PointsPerSigma { get; init; } = 8;
+
+    /// <summary>
+    /// Tolerance of the ensemble subset per star, as a fraction eps of the posterior width; 0 = always every member.
+    /// The mixture over M' of the M members (a rotating, star-dependent subset of the exchangeable bootstrap members) differs from
+    /// the full mixture by a shift of about tau / sqrt(M') (tau = the members' spread of f), against a posterior width of about
+    /// sqrt(s^2 + tau^2) in the index. M' = tau^2 / ((s_min^2 + tau^2) eps^2), at least <see cref="MinEnsembleSubset"/>: broad
+    /// likelihoods (tau much smaller than s, the expensive stars) need few members, bright stars keep them all.
+    /// </summary>
+    public double EnsembleSubsetTolerance { get; init; } = 0.03;
+
+    /// <summary>Fewest members used per star when the ensemble is subset.</summary>
+    public int MinEnsembleSubset { get; init; } = 64;
+
     /// <summary>Stars per parallel work item (fixed, so results do not depend on the thread count).</summary>
     public int ChunkSize { get; init; } = 2048;
 
@@ -66,6 +90,13 @@ public sealed record MetallicityOptions
             throw Bad("truncation_fraction", $"truncation_fraction = {TruncationFraction} is outside (0, 0.5)");
         if (!(ColourInterpolationTolerance > 0 && ColourInterpolationTolerance <= 0.01))
             throw Bad("colour_interpolation_tolerance", $"colour_interpolation_tolerance = {ColourInterpolationTolerance} is outside (0, 0.01] mag");
+        if (MaxEvaluationStride < 1 || MaxEvaluationStride > 64 || !BitOperations.IsPow2(MaxEvaluationStride))
+            throw Bad("max_evaluation_stride", $"max_evaluation_stride = {MaxEvaluationStride} must be a power of two in [1, 64]");
+        if (!(PointsPerSigma >= 2 && PointsPerSigma <= 1000))
+            throw Bad("points_per_sigma", $"points_per_sigma = {PointsPerSigma} is outside [2, 1000]");
+        if (!(EnsembleSubsetTolerance >= 0 && EnsembleSubsetTolerance <= 0.1))
+            throw Bad("ensemble_subset_tolerance", $"ensemble_subset_tolerance = {EnsembleSubsetTolerance} is outside [0, 0.1]");
+        if (MinEnsembleSubset < 1) throw Bad("min_ensemble_subset", $"min_ensemble_subset = {MinEnsembleSubset} must be >= 1");
         if (ChunkSize < 1) throw Bad("chunk_size", $"chunk_size = {ChunkSize} must be >= 1");
         if (MaxDegreeOfParallelism == 0 || MaxDegreeOfParallelism < -1)
             throw Bad("max_degree_of_parallelism", $"max_degree_of_parallelism = {MaxDegreeOfParallelism} must be -1 or >= 1");

@@ -26,7 +26,7 @@ internal sealed class StarSolver
     public StarSolver(EnsembleGrid grid, Calibration.CalibrationModel model, MetallicityOptions o, double[] prior, double truncZ)
     {
         _g = grid;
-        _kernel = new LikelihoodKernel(grid);
+        _kernel = new LikelihoodKernel(grid, o.PointsPerSigma, o.GridStep, o.EnsembleSubsetTolerance, o.MinEnsembleSubset);
         _o = o;
         _domain = model.Domain;
         _gridMin = o.GridMin;
@@ -40,40 +40,94 @@ internal sealed class StarSolver
     /// <summary>[Fe/H] of tabulated point j.</summary>
     private double FehAt(double j) => _gridMin + (_g.FehFirst + j) * _gridStep;
 
-    public StarSummary Solve(double x0, double c0, double vx, double vc, double cov, LikelihoodBuffer? store, out int start, out int length)
+    /// <summary>A star between <see cref="TryBegin"/> and <see cref="Finish"/>.</summary>
+    internal struct Pending
     {
-        start = 0;
-        length = 0;
+        public int Star, Queue, J0, J1, A, B;
+        public bool Rising;
+        public double ZAbove, ZBelow;
+    }
+
+    /// <summary>Queued stars (at most <see cref="LikelihoodKernel.BatchCapacity"/>) waiting for <see cref="FinishBatch"/>.</summary>
+    public int PendingCount => _pendingCount;
+
+    private readonly Pending[] _pending = new Pending[LikelihoodKernel.BatchCapacity];
+    private int _pendingCount;
+
+    /// <summary>
+    /// Checks the star and queues it for the batch kernel; returns false with the final summary when the star needs no
+    /// likelihood (bad photometry, colour outside the domain or in an excluded interval).
+    /// </summary>
+    public bool TryBegin(int star, double x0, double c0, double vx, double vc, double cov, out StarSummary early)
+    {
+        early = default;
         if (!(double.IsFinite(x0) && double.IsFinite(c0) && double.IsFinite(cov) && vx >= 0 && vc >= 0 && double.IsFinite(vx) && double.IsFinite(vc)))
-            return StarSummary.Without(MetallicityStatus.BadPhotometry);
-        if (_domain.IsNonMonotonic(c0)) return StarSummary.Without(MetallicityStatus.NonMonotonic);
-        if (_domain.FehRangeAt(c0) is not { } range) return StarSummary.Without(MetallicityStatus.ColourOutsideCalibration);
+        { early = StarSummary.Without(MetallicityStatus.BadPhotometry); return false; }
+        if (_domain.IsNonMonotonic(c0)) { early = StarSummary.Without(MetallicityStatus.NonMonotonic); return false; }
+        if (_domain.FehRangeAt(c0) is not { } range) { early = StarSummary.Without(MetallicityStatus.ColourOutsideCalibration); return false; }
         int first = _g.FehFirst;
         int j0 = Math.Max(0, (int)Math.Ceiling((range.FehLo - _gridMin) / _gridStep - 1e-9) - first);
         int j1 = Math.Min(_g.FehCount - 1, (int)Math.Floor((range.FehHi - _gridMin) / _gridStep + 1e-9) - first);
-        if (j1 - j0 < 1) return StarSummary.Without(MetallicityStatus.ColourOutsideCalibration);
+        if (j1 - j0 < 1) { early = StarSummary.Without(MetallicityStatus.ColourOutsideCalibration); return false; }
 
         var (k, t) = _g.Locate(c0);
         var (fLo, sLo) = BestAt(k, t, j0, vx, vc, cov);
         var (fHi, sHi) = BestAt(k, t, j1, vx, vc, cov);
         bool rising = fHi >= fLo;
-        double zAbove = rising ? (x0 - fHi) / sHi : (x0 - fLo) / sLo;
-        double zBelow = rising ? (fLo - x0) / sLo : (fHi - x0) / sHi;
+        ref var p = ref _pending[_pendingCount++];
+        p.Star = star;
+        p.J0 = j0;
+        p.J1 = j1;
+        p.Rising = rising;
+        p.ZAbove = rising ? (x0 - fHi) / sHi : (x0 - fLo) / sLo;
+        p.ZBelow = rising ? (fLo - x0) / sLo : (fHi - x0) / sHi;
+        int q = _kernel.Queued;
+        p.Queue = _kernel.Queue(star, k, t, x0, vx, vc, cov, j0, j1, _o.WindowSigmas, out p.A, out p.B) ? q : -1;
+        return true;
+    }
 
-        bool any = _kernel.Evaluate(k, t, x0, vx, vc, cov, j0, j1, _o.WindowSigmas, out int a, out int b);
-        double total = 0;
-        if (any)
+    /// <summary>Runs the kernel on the queued stars and hands each summary to <paramref name="done"/> in queue order.</summary>
+    public void FinishBatch(LikelihoodBuffer? store, Action<int, StarSummary, int, int> done)
+    {
+        _kernel.AccumulateBatch();
+        for (int i = 0; i < _pendingCount; i++)
         {
-            var like = _kernel.Values(a, b);
+            var s = Finish(in _pending[i], store, out int start, out int length);
+            done(_pending[i].Star, s, start, length);
+        }
+        _kernel.Clear();
+        _pendingCount = 0;
+    }
+
+    /// <summary>One star alone, without storing its likelihood.</summary>
+    public StarSummary Solve(double x0, double c0, double vx, double vc, double cov)
+    {
+        if (!TryBegin(0, x0, c0, vx, vc, cov, out var early)) return early;
+        StarSummary r = default;
+        FinishBatch(null, (_, s, _, _) => r = s);
+        return r;
+    }
+
+    private StarSummary Finish(in Pending p, LikelihoodBuffer? store, out int start, out int length)
+    {
+        start = 0;
+        length = 0;
+        int a = p.A, b = p.B;
+        double total = 0;
+        ReadOnlySpan<float> like = default;
+        if (p.Queue >= 0)
+        {
+            like = _kernel.Result(p.Queue);
             for (int j = 0; j < like.Length; j++) total += _post[j] = like[j] * _prior[a + j];
         }
+        double zAbove = p.ZAbove, zBelow = p.ZBelow;
         bool limit = Math.Max(zAbove, zBelow) > _o.LimitSigmas;
         if (limit || !(total > 0))
         {
             bool above = zAbove >= zBelow;
-            bool highEdge = above == rising; // the edge the index points beyond is the high-[Fe/H] one
+            bool highEdge = above == p.Rising; // the edge the index points beyond is the high-[Fe/H] one
             var side = highEdge ? FehLimitSide.Lower : FehLimitSide.Upper;
-            double lim = total > 0 ? Percentile(a, b - a, highEdge ? 0.16 : 0.84) : FehAt(highEdge ? j1 : j0);
+            double lim = total > 0 ? Percentile(a, b - a, highEdge ? 0.16 : 0.84) : FehAt(highEdge ? p.J1 : p.J0);
             var status = above ? MetallicityStatus.IndexAboveRange : MetallicityStatus.IndexBelowRange;
             return new StarSummary(status, double.NaN, highEdge ? lim : double.NaN, highEdge ? double.NaN : lim, lim, side);
         }
@@ -81,7 +135,7 @@ internal sealed class StarSolver
         double p16 = Percentile(a, b - a, 0.16);
         double p84 = Percentile(a, b - a, 0.84);
         var st = Math.Max(zAbove, zBelow) > _truncZ ? MetallicityStatus.PosteriorTruncated : MetallicityStatus.Ok;
-        if (store is not null) (start, length) = Store(a, b, store);
+        if (store is not null) (start, length) = Store(a, like, store);
         return new StarSummary(st, med, p16, p84, double.NaN, FehLimitSide.None);
     }
 
@@ -110,9 +164,8 @@ internal sealed class StarSolver
     }
 
     /// <summary>Stores the likelihood (no prior) where it is at least 1e-6 of its peak, normalised to sum x GridStep = 1.</summary>
-    private (int Start, int Length) Store(int a, int b, LikelihoodBuffer store)
+    private (int Start, int Length) Store(int a, ReadOnlySpan<float> like, LikelihoodBuffer store)
     {
-        var like = _kernel.Values(a, b);
         float peak = 0;
         foreach (float v in like) peak = Math.Max(peak, v);
         float cut = peak * 1e-6f;

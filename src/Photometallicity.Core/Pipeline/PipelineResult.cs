@@ -13,12 +13,20 @@ public sealed record PipelineResult
     public required InputCatalogues Inputs { get; init; }
     public required CrossMatchResult Match { get; init; }
     public required PhotometryProducts Photometry { get; init; }
-    public required StandardsProducts Standards { get; init; }
-    public required CalibrationResult Calibration { get; init; }
-    public required MetallicityResult Metallicity { get; init; }
-    public required MembershipResult Membership { get; init; }
-    public required NarrowCompleteness Completeness { get; init; }
-    public required StarRows Stars { get; init; }
+    public required RunScope Scope { get; init; }
+
+    /// <summary>The calibration in use: fitted in this run, or read from <see cref="RunScope.CalibrationPath"/>.</summary>
+    public required CalibrationModel Model { get; init; }
+
+    /// <summary>The standards and the fit, when the calibration was fitted in this run.</summary>
+    public StandardsProducts? Standards { get; init; }
+    public CalibrationResult? Calibration { get; init; }
+    public MetallicityResult? Metallicity { get; init; }
+    public MembershipResult? Membership { get; init; }
+    public NarrowCompleteness? Completeness { get; init; }
+    public ForecastProducts? Forecast { get; init; }
+    public ForecastRequest? ForecastRequest { get; init; }
+    public StarRows? Stars { get; init; }
     public required IReadOnlyList<string> Warnings { get; init; }
     public required IReadOnlyList<(string Stage, double Seconds)> Timings { get; init; }
 }

@@ -16,8 +16,9 @@ namespace Photometallicity.Pipeline;
 /// </summary>
 public static class PipelineRunner
 {
-    public static PipelineResult Run(PipelineConfig config, ILogger? logger = null, ProgressReporter? progress = null)
+    public static PipelineResult Run(PipelineConfig config, ILogger? logger = null, ProgressReporter? progress = null, RunScope? scope = null)
     {
+        scope ??= RunScope.Whole;
         var log = logger ?? NullLogger.Instance;
         var timings = new List<(string, double)>();
         var warnings = new List<string>();
@@ -52,24 +53,39 @@ public static class PipelineRunner
         var photometry = PhotometryStep.Run(config, inputs, match.RightIndex, log);
         Lap("photometry");
 
-        var standards = StandardsStep.Build(config, inputs, bra, bdec, photometry.Index, log);
-        CalibrationResult calibration;
-        using (var p = progress?.For("calibration bootstrap"))
+        StandardsProducts? standards = null;
+        CalibrationResult? calibration = null;
+        CalibrationModel cm;
+        if (scope.CalibrationPath is { } calPath)
         {
-            calibration = CalibrationFitter.Run(standards.Standards, new CalibrationOptions
-            {
-                Bootstrap = config.Calibration.Bootstrap,
-                Seed = config.Calibration.Seed,
-                Degree = config.Calibration.Degree,
-                MaxDegree = config.Calibration.MaxDegree,
-                ClipSigma = config.Calibration.ClipSigma,
-                Filters = photometry.Filters,
-            }, log, p);
+            cm = CalibrationJson.Read(calPath);
+            CalibrationCompatibility.Require(cm, photometry.Filters, calPath);
+            log.LogInformation("calibration read from {Path}: degree {Degree}, {Members} ensemble members, rms {Rms:F3} dex", calPath, cm.Basis.Degree,
+                cm.EnsembleCoefficients.Length, cm.RmsDex);
         }
-        var cm = calibration.Model;
-        log.LogInformation("calibration: {Used} standards used, {Rejected} rejected, degree {Degree}, rms {Rms:F3} dex, sigma_int {Sig:F3} mag",
-            cm.StandardsUsed, cm.StandardsRejected, cm.Basis.Degree, cm.RmsDex, cm.SigmaInt);
-        Lap("calibration");
+        else
+        {
+            standards = StandardsStep.Build(config, inputs, bra, bdec, photometry.Index, log);
+            using (var p = progress?.For("calibration bootstrap"))
+            {
+                calibration = CalibrationFitter.Run(standards.Standards, new CalibrationOptions
+                {
+                    Bootstrap = config.Calibration.Bootstrap,
+                    Seed = config.Calibration.Seed,
+                    Degree = config.Calibration.Degree,
+                    MaxDegree = config.Calibration.MaxDegree,
+                    ClipSigma = config.Calibration.ClipSigma,
+                    Filters = photometry.Filters,
+                }, log, p);
+            }
+            cm = calibration.Model;
+            log.LogInformation("calibration: {Used} standards used, {Rejected} rejected, degree {Degree}, rms {Rms:F3} dex, sigma_int {Sig:F3} mag",
+                cm.StandardsUsed, cm.StandardsRejected, cm.Basis.Degree, cm.RmsDex, cm.SigmaInt);
+            Lap("calibration");
+        }
+        if (scope.StopAfter == PipelineStage.Calibration)
+            return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
+                Standards = standards, Calibration = calibration, Warnings = warnings, Timings = timings };
 
         MetallicityResult metallicity;
         using (var p = progress?.For("metallicity"))
@@ -85,6 +101,13 @@ public static class PipelineRunner
         }
         log.LogInformation("metallicity: {Counts}", string.Join(", ", metallicity.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
         Lap("metallicity");
+        if (scope.StopAfter == PipelineStage.Metallicity)
+        {
+            var noMembers = Enumerable.Repeat(double.NaN, inputs.Broadband.RowCount).ToArray();
+            return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
+                Standards = standards, Calibration = calibration, Metallicity = metallicity, Warnings = warnings, Timings = timings,
+                Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers) };
+        }
 
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
         var membership = MembershipStep.Run(config, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
@@ -94,8 +117,20 @@ public static class PipelineRunner
             membership.Mdf?.Sigma ?? double.NaN, membership.Mdf?.SigmaErr ?? double.NaN);
         Lap("membership");
 
+        var request = new ForecastRequest(config.Forecast.Colours, config.Forecast.FehDex, config.Forecast.PrecisionDex, config.Target.DistanceModulus);
+        ForecastProducts? forecast = null;
+        if (photometry.ErrorModels.Count == 3)
+        {
+            var em = photometry.ErrorModels;
+            forecast = ForecastStep.Run(cm, new Forecast.BandErrorModels(em[0], em[1], em[2]), request);
+            foreach (var l in forecast.Limits)
+                log.LogInformation("forecast: a giant of colour {C:F2} and [Fe/H] {F:F1} reaches {P:F2} dex down to blue0 = {M:F2} ({Status})", l.Colour, l.Feh, l.PrecisionDex, l.BlueApparent, l.Status);
+            Lap("forecast");
+        }
+        else warnings.Add("no forecast: a photometric error model could not be fitted for every band");
+
         var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
-        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership);
+        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember);
         foreach (var w in warnings) log.LogWarning("{Warning}", w);
         return new PipelineResult
         {
@@ -103,11 +138,15 @@ public static class PipelineRunner
             Inputs = inputs,
             Match = match,
             Photometry = photometry,
+            Scope = scope,
+            Model = cm,
             Standards = standards,
             Calibration = calibration,
             Metallicity = metallicity,
             Membership = membership,
             Completeness = completeness,
+            Forecast = forecast,
+            ForecastRequest = request,
             Stars = stars,
             Warnings = warnings,
             Timings = timings,

@@ -6,11 +6,11 @@ namespace Photometallicity.Pipeline;
 /// <summary>The calibration residuals table: every standard, used, rejected or left out before the fit, with the reason.</summary>
 public static class ResidualsTable
 {
-    public static Table Build(PipelineResult r)
+    public static Table Build(StandardsProducts standards, CalibrationResult fit)
     {
-        var st = r.Standards.Standards;
-        var verdicts = r.Calibration.PerStandard;
-        int n = st.Count + r.Standards.Excluded.Count;
+        var st = standards.Standards;
+        var verdicts = fit.PerStandard;
+        int n = st.Count + standards.Excluded.Count;
         var id = new string[n];
         var status = new string[n];
         var reason = new string[n];
@@ -37,9 +37,9 @@ public static class ResidualsTable
             resSig[i] = v.ResidualSigma;
             cvDex[i] = v.CvResidualDex;
         }
-        for (int k = 0; k < r.Standards.Excluded.Count; k++)
+        for (int k = 0; k < standards.Excluded.Count; k++)
         {
-            var e = r.Standards.Excluded[k];
+            var e = standards.Excluded[k];
             int i = st.Count + k;
             id[i] = e.Id;
             status[i] = "excluded";

@@ -18,20 +18,27 @@ public static class RunOutputWriter
     {
         Directory.CreateDirectory(directory);
         var written = new List<string>();
-        var stars = StarsTable.Build(r.Stars);
-        AddProvenance(stars, r);
-        foreach (var format in r.Config.Output.Formats)
+        if (r.Stars is { } rows)
         {
-            string path = Path.Combine(directory, "stars." + format);
-            CatalogueIO.Write(stars, path, new WriteOptions { ExtensionName = "STARS" });
-            written.Add(path);
+            var stars = StarsTable.Build(rows);
+            AddProvenance(stars, r);
+            foreach (var format in r.Config.Output.Formats)
+            {
+                string path = Path.Combine(directory, "stars." + format);
+                CatalogueIO.Write(stars, path, new WriteOptions { ExtensionName = "STARS" });
+                written.Add(path);
+            }
         }
         string cal = Path.Combine(directory, "calibration.json");
-        CalibrationJson.Write(r.Calibration.Model, r.Calibration, cal);
+        CalibrationJson.Write(r.Model, r.Calibration, cal);
         written.Add(cal);
-        string res = Path.Combine(directory, "calibration_residuals.csv");
-        CatalogueIO.Write(ResidualsTable.Build(r), res);
-        written.Add(res);
+        if (r.Standards is { } standards && r.Calibration is { } fit)
+        {
+            string res = Path.Combine(directory, "calibration_residuals.csv");
+            CatalogueIO.Write(ResidualsTable.Build(standards, fit), res);
+            written.Add(res);
+        }
+        if (r.Forecast is { } fc && r.ForecastRequest is { } fr) written.AddRange(ForecastStep.Write(fc, directory, fr.PrecisionDex).Take(3));
         string summary = Path.Combine(directory, "summary.json");
         AtomicFile.WriteAllText(summary, SummaryBuilder.Build(r).ToJsonString(JsonOptions) + "\n");
         written.Add(summary);

@@ -1,12 +1,128 @@
+using System.Text.Json.Nodes;
 using Microsoft.Extensions.Logging;
+using Photometallicity.Calibration;
+using Photometallicity.Catalogues;
+using Photometallicity.Reporting;
 
 namespace Photometallicity.Pipeline;
 
-/// <summary>Writes the figures and the summary page of a run (plots/ and summary.html).</summary>
+/// <summary>
+/// Writes the figures (plots/*.png, *.svg) and the summary page (summary.html, summary.md) of a run from the files
+/// already in its output directory (stars.csv, calibration.json, calibration_residuals.csv, summary.json, and
+/// forecast.csv when present), so that `report DIR` rebuilds exactly what `run` drew.
+/// </summary>
 public static class RunReport
 {
-    public static IReadOnlyList<string> Write(PipelineResult r, string directory, ILogger log)
+    public static IReadOnlyList<string> Write(string directory, ILogger log)
     {
-        return [];
+        string Need(string name)
+        {
+            string p = Path.Combine(directory, name);
+            if (!File.Exists(p)) throw new Errors.InputException($"{name} not found: is this the output directory of a run?", directory);
+            return p;
+        }
+        var summary = JsonNode.Parse(File.ReadAllText(Need("summary.json")))!.AsObject();
+        var stars = CatalogueIO.Read(Need("stars.csv"), new ReadOptions { TextColumns = new HashSet<string> { "id", "narrow_id", "status" } });
+        var model = CalibrationJson.Read(Need("calibration.json"));
+        var residuals = CatalogueIO.Read(Need("calibration_residuals.csv"), new ReadOptions { TextColumns = new HashSet<string> { "id", "status", "reason" } });
+        string plots = Path.Combine(directory, "plots");
+        var figures = new List<FigureEntry>();
+        var written = new List<string>();
+        void Add(FigureFiles f, string caption, string title)
+        {
+            figures.Add(new FigureEntry(f.PngPath, caption, title));
+            written.Add(f.PngPath);
+            written.Add(f.SvgPath);
+        }
+
+        var status = residuals.Require("status");
+        var fitted = Enumerable.Range(0, residuals.RowCount).Where(i => status.GetString(i) != "excluded").ToArray();
+        double[] rc = Pick(residuals.RequireDoubles("colour0"), fitted), ri = Pick(residuals.RequireDoubles("index0"), fitted);
+        double[] rf = Pick(residuals.RequireDoubles("feh_spec"), fitted), rd = Pick(residuals.RequireDoubles("residual_dex"), fitted);
+        bool[] acc = fitted.Select(i => status.GetString(i) == "accepted").ToArray();
+        double[] colour = stars.RequireDoubles("colour0"), index = stars.RequireDoubles("index0"), p = stars.RequireDoubles("p_member");
+
+        Add(ColourIndexPlot.Write(new ColourIndexPlotData(rc, ri, acc, IsoCurves(model), colour, index), Path.Combine(plots, "colour_index")),
+            "Colour-index diagram: the calibration's iso-[Fe/H] curves over its validity domain, the standards (accepted and rejected) and the field stars.", "Calibration");
+        Add(CalibrationResidualsPlot.Write(new CalibrationResidualsPlotData(rc, rf, rd, acc, RmsDex: model.RmsDex), Path.Combine(plots, "calibration_residuals")),
+            "Calibration residuals in [Fe/H] against colour and against spectroscopic [Fe/H]; rejected standards marked.", "Calibration residuals");
+
+        var mem = summary["members"]!.AsObject();
+        string magBand = (string?)mem["magnitude_band"] ?? "blue";
+        double[] mag = stars.RequireDoubles(magBand == "red" ? "red0" : "blue0");
+        double[]? ridgeMag = mem["ridge_mag"]?.AsArray().Select(v => v is null ? double.NaN : (double)v).ToArray();
+        double[]? ridgeCol = mem["ridge_colour"]?.AsArray().Select(v => v is null ? double.NaN : (double)v).ToArray();
+        Add(CmdPlot.Write(new CmdPlotData(colour, mag, p, ridgeCol, ridgeMag), Path.Combine(plots, "cmd")),
+            "Colour-magnitude diagram coloured by membership probability, with the fitted red-giant locus.", "Colour-magnitude diagram");
+
+        double ra0 = Num(mem["centre_ra_deg"]), dec0 = Num(mem["centre_dec_deg"]);
+        var (xi, eta) = Gnomonic(stars.RequireDoubles("ra"), stars.RequireDoubles("dec"), ra0, dec0);
+        var ellipse = double.IsFinite(ra0) ? new HalfLightEllipse(0, 0, Num(mem["half_light_arcmin"]), Num(mem["ellipticity"]), Num(mem["position_angle_deg"])) : null;
+        Add(SkyMapPlot.Write(new SkyMapPlotData(xi, eta, p, ellipse), Path.Combine(plots, "sky")),
+            "Sky map in the tangent plane about the fitted centre (east to the left), coloured by membership probability, with the fitted half-light ellipse.", "Sky map");
+
+        var mdf = summary["mdf"] as JsonObject;
+        double[] feh = stars.RequireDoubles("feh"), lo = stars.RequireDoubles("feh_lo"), hi = stars.RequireDoubles("feh_hi");
+        var withFeh = Enumerable.Range(0, stars.RowCount).Where(i => double.IsFinite(feh[i]) && double.IsFinite(p[i])).ToArray();
+        if (mdf is not null && withFeh.Length > 0)
+            Add(MdfPlot.Write(new MdfPlotData(Pick(feh, withFeh), Pick(p, withFeh), withFeh.Select(i => 0.5 * (hi[i] - lo[i])).ToArray(),
+                    Num(mdf["mean"]), Num(mdf["mean_err"]), Num(mdf["sigma"]), Num(mdf["sigma_err"])), Path.Combine(plots, "mdf")),
+                "Metallicity distribution of the members: membership-weighted histogram of the per-star posterior medians, the fitted Gaussian (intrinsic spread), and the spread expected from the per-star errors.", "Metallicity distribution");
+
+        string forecastCsv = Path.Combine(directory, "forecast.csv");
+        if (File.Exists(forecastCsv) && summary["forecast"] is JsonObject fc)
+            Add(ForecastStep.WriteFigure(forecastCsv, Num(fc["precision_dex"]), Path.Combine(plots, "forecast")),
+                "Forecast: expected [Fe/H] precision (posterior half-width) of a red giant against its dereddened blue magnitude, from the calibration and the fitted photometric error models; the horizontal line is the requested precision.", "Forecast");
+
+        var page = SummaryPageBuilder.Build(directory, summary, figures);
+        string html = Path.Combine(directory, "summary.html"), md = Path.Combine(directory, "summary.md");
+        SummaryPage.WriteHtml(page, html);
+        SummaryPage.WriteMarkdown(page, md);
+        written.Add(html);
+        written.Add(md);
+        log.LogInformation("report: {Figures} figures and the summary page written", figures.Count);
+        return written;
+    }
+
+    /// <summary>Iso-[Fe/H] curves of the best fit, drawn only where the validity domain covers them.</summary>
+    private static IReadOnlyList<IsoMetallicityCurve> IsoCurves(CalibrationModel model)
+    {
+        var d = model.Domain;
+        var curves = new List<IsoMetallicityCurve>();
+        for (double f = Math.Ceiling(d.FehMin * 2) / 2; f <= d.FehMax + 1e-9; f += 0.5)
+        {
+            var c = new List<double>();
+            var x = new List<double>();
+            for (int k = 0; k <= 200; k++)
+            {
+                double col = d.ColourMin + (d.ColourMax - d.ColourMin) * k / 200.0;
+                if (!d.Contains(col, f)) continue;
+                c.Add(col);
+                x.Add(model.Evaluate(col, f));
+            }
+            if (c.Count >= 2) curves.Add(new IsoMetallicityCurve(Math.Round(f, 2), c.ToArray(), x.ToArray()));
+        }
+        return curves;
+    }
+
+    internal static double Num(JsonNode? n) => n is null ? double.NaN : (double)n;
+
+    private static double[] Pick(double[] v, int[] rows) => rows.Select(i => v[i]).ToArray();
+
+    /// <summary>Gnomonic projection (Calabretta &amp; Greisen 2002, A&amp;A 395, 1077, TAN) in arcmin; xi grows to the east.</summary>
+    private static (double[] Xi, double[] Eta) Gnomonic(double[] ra, double[] dec, double ra0Deg, double dec0Deg)
+    {
+        int n = ra.Length;
+        var xi = new double[n];
+        var eta = new double[n];
+        double a0 = ra0Deg * Math.PI / 180, d0 = dec0Deg * Math.PI / 180;
+        for (int i = 0; i < n; i++)
+        {
+            double a = ra[i] * Math.PI / 180, d = dec[i] * Math.PI / 180;
+            double cosc = Math.Sin(d0) * Math.Sin(d) + Math.Cos(d0) * Math.Cos(d) * Math.Cos(a - a0);
+            xi[i] = Math.Cos(d) * Math.Sin(a - a0) / cosc * (180 / Math.PI * 60);
+            eta[i] = (Math.Cos(d0) * Math.Sin(d) - Math.Sin(d0) * Math.Cos(d) * Math.Cos(a - a0)) / cosc * (180 / Math.PI * 60);
+        }
+        return (xi, eta);
     }
 }

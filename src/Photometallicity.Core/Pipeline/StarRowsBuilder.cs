@@ -1,6 +1,5 @@
 using Photometallicity.Configuration;
 using Photometallicity.CrossMatch;
-using Photometallicity.Membership;
 using Photometallicity.Metallicity;
 
 namespace Photometallicity.Pipeline;
@@ -9,7 +8,7 @@ namespace Photometallicity.Pipeline;
 public static class StarRowsBuilder
 {
     public static StarRows Build(PipelineConfig config, InputCatalogues inputs, CrossMatchResult match, PhotometryProducts phot,
-        MetallicityResult feh, MembershipResult membership)
+        MetallicityResult feh, double[] pMember)
     {
         var b = inputs.Broadband;
         int n = b.RowCount;
@@ -51,7 +50,7 @@ public static class StarRowsBuilder
             Feh = feh.Feh,
             FehLo = feh.FehLo,
             FehHi = feh.FehHi,
-            PMember = membership.PMember,
+            PMember = pMember,
             Status = status,
         };
     }

@@ -7,18 +7,17 @@ namespace Photometallicity.Pipeline;
 /// <summary>
 /// Builds summary.json: the key numbers of every stage with their uncertainties, warnings and provenance
 /// (version, seeds, resolved config, input checksums, timings). Keys keep a fixed order; non-finite numbers are null.
+/// Sections of stages the run did not reach are left out.
 /// </summary>
 public static class SummaryBuilder
 {
+    private static readonly JsonSerializerOptions ResolvedConfigOptions = new() { NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals };
+
     public static JsonObject Build(PipelineResult r)
     {
         var c = r.Config;
         string dir = Path.GetDirectoryName(c.ConfigPath)!;
         string Rel(string p) => Path.GetRelativePath(dir, p);
-        var m = r.Match;
-        var cal = r.Calibration;
-        var mem = r.Membership;
-        var s = mem.Structure;
         var summary = new JsonObject
         {
             ["tool"] = new JsonObject { ["name"] = "photometallicity", ["version"] = ToolVersion.Current },
@@ -27,99 +26,132 @@ public static class SummaryBuilder
             {
                 ["broadband"] = r.Inputs.Broadband.RowCount,
                 ["narrowband"] = r.Inputs.Narrowband.RowCount,
-                ["standards"] = r.Standards.Total,
+                ["standards"] = r.Inputs.Standards.Sum(t => t.RowCount),
             },
-            ["crossmatch"] = new JsonObject
-            {
-                ["matched"] = m.Matched,
-                ["radius_arcsec"] = N(m.RadiusUsed.Arcseconds),
-                ["radius_reason"] = m.RadiusReason,
-                ["offset_arcsec"] = new JsonArray(N(m.Offset.DRaCosDecArcsec), N(m.Offset.DDecArcsec)),
-                ["offset_err_arcsec"] = new JsonArray(N(m.OffsetError.DRaCosDecArcsec), N(m.OffsetError.DDecArcsec)),
-                ["offset_solved"] = m.OffsetSolved,
-                ["offset_note"] = m.OffsetReason,
-                ["secure_pairs"] = m.SecurePairsUsed,
-                ["possible_blends"] = m.BlendCount,
-                ["false_match_rate_expected"] = N(m.ExpectedFalseMatchRate),
-                ["false_match_rate_measured"] = N(m.MeasuredFalseMatchRate),
-                ["false_match_rate_measured_err"] = N(m.MeasuredFalseMatchRateError),
-                ["iterations"] = m.Iterations,
-                ["converged"] = m.Converged,
-            },
-            ["photometry"] = new JsonObject
-            {
-                ["extinction_a_over_ebv"] = new JsonObject
-                {
-                    ["blue"] = N(r.Photometry.ExtinctionCoefficients.Blue),
-                    ["red"] = N(r.Photometry.ExtinctionCoefficients.Red),
-                    ["narrow"] = N(r.Photometry.ExtinctionCoefficients.Narrow),
-                },
-                ["usable_for_index"] = r.Photometry.Result.Diagnostics.Usable,
-                ["usable_colour"] = r.Photometry.Result.Diagnostics.UsableColour,
-                ["error_models"] = new JsonArray(r.Photometry.ErrorModels.Select(e => (JsonNode)new JsonObject
-                {
-                    ["band"] = e.Band, ["depth_5sigma_mag"] = N(e.Depth5Sigma), ["floor_mag"] = N(e.Floor),
-                }).ToArray()),
-                ["narrow_complete_to_blue0_mag"] = N(r.Completeness.CompleteToMag),
-            },
-            ["calibration"] = new JsonObject
-            {
-                ["rms_dex"] = N(cal.Model.RmsDex),
-                ["rms_index_mag"] = N(cal.Model.RmsIndex),
-                ["cv_rms_dex"] = N(cal.CvRmsDex),
-                ["sigma_int_mag"] = N(cal.Model.SigmaInt),
-                ["degree"] = cal.Degree,
-                ["degree_reason"] = cal.DegreeReason,
-                ["standards_total"] = r.Standards.Total,
-                ["standards_used"] = cal.Model.StandardsUsed,
-                ["standards_rejected"] = cal.Model.StandardsRejected,
-                ["standards_excluded_before_fit"] = r.Standards.Excluded.Count,
-                ["bootstrap"] = cal.Model.EnsembleCoefficients.Length,
-                ["colour_range"] = new JsonArray(N(cal.Model.Domain.ColourMin), N(cal.Model.Domain.ColourMax)),
-                ["feh_range"] = new JsonArray(N(cal.Model.Domain.FehMin), N(cal.Model.Domain.FehMax)),
-                ["rejected"] = new JsonArray(cal.Rejected.Select(v => (JsonNode)new JsonObject { ["id"] = v.Id, ["reason"] = v.Reason }).ToArray()),
-            },
-            ["metallicity"] = new JsonObject(r.Metallicity.Counts.OrderBy(kv => (int)kv.Key).Select(kv => new KeyValuePair<string, JsonNode?>(kv.Key.ToString(), kv.Value))),
-            ["members"] = new JsonObject
-            {
-                ["expected"] = N(mem.ExpectedMembers),
-                ["significant"] = mem.Significant,
-                ["no_target_p_value"] = N(mem.NoTargetPValue),
-                ["centre_ra_deg"] = N(s.Centre.RaDegrees),
-                ["centre_dec_deg"] = N(s.Centre.DecDegrees),
-                ["centre_err_arcmin"] = new JsonArray(N(s.CentreRaCosDecErrArcmin), N(s.CentreDecErrArcmin)),
-                ["half_light_arcmin"] = N(s.HalfLightArcmin),
-                ["half_light_err_arcmin"] = N(s.HalfLightErrArcmin),
-                ["ellipticity"] = N(s.Ellipticity),
-                ["ellipticity_err"] = N(s.EllipticityErr),
-                ["position_angle_deg"] = N(s.PositionAngleDeg),
-                ["position_angle_err_deg"] = N(s.PositionAngleErrDeg),
-                ["profile"] = s.Profile.ToString().ToLowerInvariant(),
-                ["footprint_area_arcmin2"] = N(mem.FootprintAreaArcmin2),
-                ["converged"] = mem.Converged,
-            },
-            ["mdf"] = Mdf(mem.Mdf),
-            ["mdf_modes"] = new JsonObject
+            ["crossmatch"] = CrossMatch(r),
+            ["photometry"] = Photometry(r),
+            ["calibration"] = Calibration(r, Rel),
+        };
+        if (r.Metallicity is { } met)
+            summary["metallicity"] = new JsonObject(met.Counts.OrderBy(kv => (int)kv.Key).Select(kv => new KeyValuePair<string, JsonNode?>(kv.Key.ToString(), kv.Value)));
+        if (r.Membership is { } mem)
+        {
+            summary["members"] = Members(mem, c.Membership.MagnitudeBand);
+            summary["mdf"] = Mdf(mem.Mdf);
+            summary["mdf_modes"] = new JsonObject
             {
                 ["configured"] = c.Membership.UseMetallicity ? "with_metallicity_term" : "without_metallicity_term",
                 ["with_metallicity_term"] = Mdf(mem.MdfWithMetallicityTerm),
                 ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm),
-            },
-            ["warnings"] = new JsonArray(r.Warnings.Select(w => (JsonNode)JsonValue.Create(w)!).ToArray()),
-            ["provenance"] = new JsonObject
-            {
-                ["version"] = ToolVersion.Current,
-                ["seed"] = c.Seed,
-                ["seeds"] = new JsonObject { ["calibration_bootstrap"] = c.Calibration.Seed, ["membership"] = Numerics.Seeds.Derive(c.Seed, "membership") },
-                ["config"] = Rel(c.ConfigPath),
-                ["resolved_config"] = JsonSerializer.SerializeToNode(c, ResolvedConfigOptions),
-                ["timings_s"] = new JsonObject(r.Timings.Select(t => new KeyValuePair<string, JsonNode?>(t.Stage, t.Seconds))),
-            },
+            };
+        }
+        if (r.Forecast is { } fc && r.ForecastRequest is { } fr) summary["forecast"] = ForecastStep.Summary(fc, fr);
+        summary["warnings"] = new JsonArray(r.Warnings.Select(w => (JsonNode)JsonValue.Create(w)!).ToArray());
+        summary["provenance"] = new JsonObject
+        {
+            ["version"] = ToolVersion.Current,
+            ["seed"] = c.Seed,
+            ["seeds"] = new JsonObject { ["calibration_bootstrap"] = c.Calibration.Seed, ["membership"] = Numerics.Seeds.Derive(c.Seed, "membership") },
+            ["config"] = Rel(c.ConfigPath),
+            ["scope"] = r.Scope.StopAfter.ToString().ToLowerInvariant(),
+            ["resolved_config"] = JsonSerializer.SerializeToNode(c, ResolvedConfigOptions),
+            ["timings_s"] = new JsonObject(r.Timings.Select(t => new KeyValuePair<string, JsonNode?>(t.Stage, t.Seconds))),
         };
         return summary;
     }
 
-    private static readonly JsonSerializerOptions ResolvedConfigOptions = new() { NumberHandling = System.Text.Json.Serialization.JsonNumberHandling.AllowNamedFloatingPointLiterals };
+    private static JsonObject CrossMatch(PipelineResult r)
+    {
+        var m = r.Match;
+        return new JsonObject
+        {
+            ["matched"] = m.Matched,
+            ["radius_arcsec"] = N(m.RadiusUsed.Arcseconds),
+            ["radius_reason"] = m.RadiusReason,
+            ["offset_arcsec"] = new JsonArray(N(m.Offset.DRaCosDecArcsec), N(m.Offset.DDecArcsec)),
+            ["offset_err_arcsec"] = new JsonArray(N(m.OffsetError.DRaCosDecArcsec), N(m.OffsetError.DDecArcsec)),
+            ["offset_solved"] = m.OffsetSolved,
+            ["offset_note"] = m.OffsetReason,
+            ["rotation_arcsec"] = m.RotationArcsec is { } rot ? N(rot) : null,
+            ["scale"] = m.Scale is { } sc ? N(sc) : null,
+            ["secure_pairs"] = m.SecurePairsUsed,
+            ["possible_blends"] = m.BlendCount,
+            ["false_match_rate_expected"] = N(m.ExpectedFalseMatchRate),
+            ["false_match_rate_measured"] = N(m.MeasuredFalseMatchRate),
+            ["false_match_rate_measured_err"] = N(m.MeasuredFalseMatchRateError),
+            ["iterations"] = m.Iterations,
+            ["converged"] = m.Converged,
+        };
+    }
+
+    private static JsonObject Photometry(PipelineResult r) => new()
+    {
+        ["extinction_a_over_ebv"] = new JsonObject
+        {
+            ["blue"] = N(r.Photometry.ExtinctionCoefficients.Blue),
+            ["red"] = N(r.Photometry.ExtinctionCoefficients.Red),
+            ["narrow"] = N(r.Photometry.ExtinctionCoefficients.Narrow),
+        },
+        ["usable_for_index"] = r.Photometry.Result.Diagnostics.Usable,
+        ["usable_colour"] = r.Photometry.Result.Diagnostics.UsableColour,
+        ["error_models"] = new JsonArray(r.Photometry.ErrorModels.Select(e => (JsonNode)new JsonObject
+        {
+            ["band"] = e.Band, ["depth_5sigma_mag"] = N(e.Depth5Sigma), ["floor_mag"] = N(e.Floor),
+        }).ToArray()),
+        ["narrow_complete_to_blue0_mag"] = N(r.Completeness?.CompleteToMag ?? double.NaN),
+    };
+
+    private static JsonObject Calibration(PipelineResult r, Func<string, string> rel)
+    {
+        var model = r.Model;
+        var cal = r.Calibration;
+        return new JsonObject
+        {
+            ["source"] = r.Scope.CalibrationPath is { } cp ? rel(cp) : "fitted in this run",
+            ["rms_dex"] = N(model.RmsDex),
+            ["rms_index_mag"] = N(model.RmsIndex),
+            ["cv_rms_dex"] = cal is null ? null : N(cal.CvRmsDex),
+            ["sigma_int_mag"] = N(model.SigmaInt),
+            ["degree"] = model.Basis.Degree,
+            ["degree_reason"] = cal?.DegreeReason,
+            ["standards_total"] = r.Standards?.Total,
+            ["standards_used"] = model.StandardsUsed,
+            ["standards_rejected"] = model.StandardsRejected,
+            ["standards_excluded_before_fit"] = r.Standards?.Excluded.Count,
+            ["bootstrap"] = model.EnsembleCoefficients.Length,
+            ["colour_range"] = new JsonArray(N(model.Domain.ColourMin), N(model.Domain.ColourMax)),
+            ["feh_range"] = new JsonArray(N(model.Domain.FehMin), N(model.Domain.FehMax)),
+            ["rejected"] = cal is null ? null : new JsonArray(cal.Rejected.Select(v => (JsonNode)new JsonObject { ["id"] = v.Id, ["reason"] = v.Reason }).ToArray()),
+        };
+    }
+
+    private static JsonObject Members(MembershipResult mem, string magnitudeBand)
+    {
+        var s = mem.Structure;
+        return new JsonObject
+        {
+            ["expected"] = N(mem.ExpectedMembers),
+            ["significant"] = mem.Significant,
+            ["no_target_p_value"] = N(mem.NoTargetPValue),
+            ["centre_ra_deg"] = N(s.Centre.RaDegrees),
+            ["centre_dec_deg"] = N(s.Centre.DecDegrees),
+            ["centre_err_arcmin"] = new JsonArray(N(s.CentreRaCosDecErrArcmin), N(s.CentreDecErrArcmin)),
+            ["half_light_arcmin"] = N(s.HalfLightArcmin),
+            ["half_light_err_arcmin"] = N(s.HalfLightErrArcmin),
+            ["ellipticity"] = N(s.Ellipticity),
+            ["ellipticity_err"] = N(s.EllipticityErr),
+            ["position_angle_deg"] = N(s.PositionAngleDeg),
+            ["position_angle_err_deg"] = N(s.PositionAngleErrDeg),
+            ["profile"] = s.Profile.ToString().ToLowerInvariant(),
+            ["footprint_area_arcmin2"] = N(mem.FootprintAreaArcmin2),
+            ["magnitude_band"] = magnitudeBand,
+            ["ridge_mag"] = new JsonArray(mem.RidgeMag.Select(v => N(v)).ToArray()),
+            ["ridge_colour"] = new JsonArray(mem.RidgeColour.Select(v => N(v)).ToArray()),
+            ["ridge_width_mag"] = N(mem.RidgeWidth),
+            ["iterations"] = mem.Iterations,
+            ["converged"] = mem.Converged,
+        };
+    }
 
     public static JsonNode? Mdf(MdfFit? f) => f is null ? null : new JsonObject
     {

@@ -113,7 +113,7 @@ public static class ColourIndexPlot
             line.LineWidth = 2.5f;
             if (first) line.LegendText = "iso-[Fe/H] curves (dex)";
             first = false;
-            var label = plot.Add.Text(" " + FigureStyle.Num(c.FehDex, "+0.0;−0.0;0.0"), cx[^1], cy[^1]);
+            var label = plot.Add.Text(" " + ValueFormat.Num(c.FehDex, "+0.0;−0.0;0.0"), cx[^1], cy[^1]);
             label.LabelFontSize = FigureStyle.TickLabelSize;
             label.LabelFontName = ReportFonts.FamilyName;
             label.LabelFontColor = colour;

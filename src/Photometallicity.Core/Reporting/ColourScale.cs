@@ -33,7 +33,7 @@ internal static class ColourScale
         }
         if (unknown.Count > 0)
         {
-            var m = new DotCloud(Take(x, unknown), Take(y, unknown), Palette.Faint.WithAlpha(0.6), minSize) { LegendText = unknownLegend };
+            var m = new DotCloud(PointThinning.Take(x, [.. unknown]), PointThinning.Take(y, [.. unknown]), Palette.Faint.WithAlpha(0.6), minSize) { LegendText = unknownLegend };
             plot.Add.Plottable(m);
         }
         for (int b = 0; b < Bins; b++)
@@ -42,18 +42,11 @@ internal static class ColourScale
             double centre = (b + 0.5) / Bins;
             var colour = Palette.Continuous.GetColor(centre);
             float size = (float)(minSize + (maxSize - minSize) * centre);
-            plot.Add.Plottable(new DotCloud(Take(x, binned[b]), Take(y, binned[b]), colour.WithAlpha(0.85), size));
+            plot.Add.Plottable(new DotCloud(PointThinning.Take(x, [.. binned[b]]), PointThinning.Take(y, [.. binned[b]]), colour.WithAlpha(0.85), size));
         }
         var bar = plot.Add.ColorBar(new UnitRange(Palette.Continuous), Edge.Right);
         bar.Label = label;
         bar.Width = 24;
         bar.Axis.SetTicks([0, 0.2, 0.4, 0.6, 0.8, 1.0], ["0", "0.2", "0.4", "0.6", "0.8", "1"]);
-    }
-
-    private static double[] Take(double[] values, List<int> rows)
-    {
-        var r = new double[rows.Count];
-        for (int k = 0; k < r.Length; k++) r[k] = values[rows[k]];
-        return r;
     }
 }

@@ -10,7 +10,7 @@ namespace Photometallicity.Reporting;
 /// and writes figures: both files are rendered in memory first and then each is written atomically, so a
 /// failure leaves neither file half-written.
 /// </summary>
-internal static class FigureRenderer
+internal static partial class FigureRenderer
 {
     /// <summary>
     /// Writes <c>path.png</c> (all points) and <c>path.svg</c> (scatter thinned to
@@ -50,8 +50,26 @@ internal static class FigureRenderer
         // Skia names the typeface's own family; add fallbacks for viewers without DejaVu Sans.
         string xml = Encoding.UTF8.GetString(buffer.ToArray())
             .Replace($"font-family=\"{ReportFonts.TypefaceFamily}\"", $"font-family=\"{ReportFonts.TypefaceFamily}, Verdana, sans-serif\"");
-        return Encoding.UTF8.GetBytes(xml);
+        return Encoding.UTF8.GetBytes(RenumberClipIds(xml));
     }
+
+    /// <summary>
+    /// Skia numbers clip paths from a process-wide counter ("cl_1a0"), so the same figure drawn twice would
+    /// differ; renumber them in order of first appearance so that the SVG depends on the figure alone.
+    /// </summary>
+    internal static string RenumberClipIds(string xml)
+    {
+        var map = new Dictionary<string, string>(StringComparer.Ordinal);
+        return ClipId().Replace(xml, m =>
+        {
+            string old = m.Groups[2].Value;
+            if (!map.TryGetValue(old, out var fresh)) map[old] = fresh = "pm" + map.Count.ToString(System.Globalization.CultureInfo.InvariantCulture);
+            return m.Groups[1].Value + "cl_" + fresh + m.Groups[3].Value;
+        });
+    }
+
+    [System.Text.RegularExpressions.GeneratedRegex("(id=\"|url\\(#)cl_([0-9A-Za-z]+)(\"|\\))")]
+    private static partial System.Text.RegularExpressions.Regex ClipId();
 
     /// <summary>A figure of one plot.</summary>
     public static Multiplot Single(Plot plot) => new(plot);

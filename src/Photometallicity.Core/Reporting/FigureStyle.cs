@@ -4,8 +4,9 @@ namespace Photometallicity.Reporting;
 
 /// <summary>
 /// The common look of every figure: text sizes in pixels chosen for a 1200 x 900 px figure printed at
-/// 8 x 6 inch (16 px at 150 dpi is about 7.7 pt, the smallest text a journal accepts after reduction to column
-/// width), a plain frame, a faint grid, legends with an opaque background.
+/// 8 x 6 inch (16 px at 150 dpi is about 7.7 pt; no text is smaller than 14 px, about 6.7 pt, near the
+/// minimum journals commonly ask for: common practice, no single source), a plain frame, a faint grid,
+/// legends with an opaque background.
 /// </summary>
 internal static class FigureStyle
 {
@@ -15,13 +16,11 @@ internal static class FigureStyle
     public const float LegendSize = 16;
     public const float NoteSize = 14;
 
-    /// <summary>Creates a plot whose text uses the bundled font.</summary>
+    /// <summary>Creates a plot whose text uses the bundled font (registered as ScottPlot's default first).</summary>
     public static Plot NewPlot()
     {
         ReportFonts.EnsureRegistered();
-        var plot = new Plot();
-        plot.Font.Set(ReportFonts.FamilyName, FontWeight.Normal, FontSlant.Upright, FontSpacing.Normal);
-        return plot;
+        return new Plot();
     }
 
     /// <summary>Applies sizes and colours; call after every axis and colour bar has been added.</summary>
@@ -63,7 +62,8 @@ internal static class FigureStyle
     public static void AddThinningNote(Plot plot, int shown, int total)
     {
         if (shown >= total) return;
-        var note = plot.Add.Annotation($"vector copy: {shown:N0} of {total:N0} points shown (even subsample)", Alignment.LowerLeft);
+        var note = plot.Add.Annotation(string.Create(System.Globalization.CultureInfo.InvariantCulture,
+            $"vector copy: {shown:N0} of {total:N0} points shown (even subsample)"), Alignment.LowerLeft);
         note.LabelFontSize = NoteSize;
         note.LabelFontName = ReportFonts.FamilyName;
         note.LabelBackgroundColor = Colors.White.WithAlpha(0.85);
@@ -71,10 +71,6 @@ internal static class FigureStyle
         note.LabelShadowColor = Colors.Transparent;
         note.LabelFontColor = Colors.Black.WithAlpha(0.75);
     }
-
-    /// <summary>A number in invariant culture with a typographic minus sign (U+2212).</summary>
-    public static string Num(double value, string format) =>
-        value.ToString(format, System.Globalization.CultureInfo.InvariantCulture).Replace('-', '−');
 
     /// <summary>Axis limits [min, max] of the finite values, padded by a fraction of the range.</summary>
     public static (double Min, double Max) PaddedRange(IEnumerable<double> values, double padFraction = 0.04)

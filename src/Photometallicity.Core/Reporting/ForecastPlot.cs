@@ -57,7 +57,7 @@ public static class ForecastPlot
             if (m.Length <= 40) plot.Add.Markers(m, s, Palette.SeriesMarker(k), 9, Palette.SeriesColour(k));
             if (d.RequestedPrecisionDex is double target && Crossing(m, s, target) is double at)
             {
-                line.LegendText = string.Create(CultureInfo.InvariantCulture, $"{c.Label} (reaches {FigureStyle.Num(target, "0.00")} dex at {FigureStyle.Num(at, "0.0")} mag)");
+                line.LegendText = string.Create(CultureInfo.InvariantCulture, $"{c.Label} (reaches {ValueFormat.Num(target, "0.00")} dex at {ValueFormat.Num(at, "0.0")} mag)");
                 var mark = plot.Add.Marker(at, target, MarkerShape.OpenCircle, 16, Palette.SeriesColour(k));
                 mark.MarkerLineWidth = 2.5f;
             }
@@ -69,7 +69,7 @@ public static class ForecastPlot
         {
             plot.Add.Plottable(new PatternLine([xMin, xMax], [p, p], Palette.Black, 2, LinePattern.Dashed)
             {
-                LegendText = $"requested precision {FigureStyle.Num(p, "0.00")} dex",
+                LegendText = $"requested precision {ValueFormat.Num(p, "0.00")} dex",
             });
             ys.Add(p);
         }

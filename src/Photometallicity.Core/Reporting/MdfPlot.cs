@@ -111,8 +111,8 @@ public static class MdfPlot
         plot.YLabel("Σ p_member per bin (stars)");
         plot.ShowLegend(Alignment.UpperLeft);
         string title = 
-            $"⟨[Fe/H]⟩ = {FigureStyle.Num(d.MeanDex, "0.00")} ± {FigureStyle.Num(d.MeanErrDex, "0.00")} dex,  " +
-            $"σ = {FigureStyle.Num(d.SigmaDex, "0.00")} ± {FigureStyle.Num(d.SigmaErrDex, "0.00")} dex";
+            $"⟨[Fe/H]⟩ = {ValueFormat.Num(d.MeanDex, "0.00")} ± {ValueFormat.Num(d.MeanErrDex, "0.00")} dex, " +
+            $"σ = {ValueFormat.Num(d.SigmaDex, "0.00")} ± {ValueFormat.Num(d.SigmaErrDex, "0.00")} dex";
         FigureStyle.Finish(plot, d.Title is null ? title : d.Title + "\n" + title);
         return plot;
     }

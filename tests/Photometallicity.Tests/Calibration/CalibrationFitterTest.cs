@@ -147,6 +147,32 @@ public class CalibrationFitterTest
         Assert.Contains("star0002", e.Message);
     }
 
+    [Fact]
+    public void Run_ReportsProgressUpToOne()
+    {
+        var seen = new List<double>();
+        var progress = new SyncProgress(v => { lock (seen) seen.Add(v); });
+        CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 40 }, 15), SyntheticStandards.Options(bootstrap: 30, degree: 1), null, progress);
+        Assert.Equal(1.0, seen.Max());
+        Assert.All(seen, v => Assert.InRange(v, 0.0, 1.0));
+    }
+
+    private sealed class SyncProgress(Action<double> report) : IProgress<double>
+    {
+        public void Report(double value) => report(value);
+    }
+
+    [Fact]
+    public void Run_FixedDegreeWithTooFewStandardsPerFold_StillFitsAndSaysWhy()
+    {
+        // 13 standards, degree 3 (10 coefficients): enough to fit, too few for 5-fold cross-validation.
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 13, SigmaInt = 0.005 }, 16);
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0, degree: 3) with { ClipSigma = 100 });
+        Assert.Equal(3, r.Degree);
+        Assert.Contains("fold", r.IneligibleDegrees[3]);
+        Assert.Equal(13, r.Model.StandardsUsed);
+    }
+
     internal static byte[] Serialize(CalibrationResult r)
     {
         using var ms = new MemoryStream();

@@ -12,7 +12,11 @@ namespace Photometallicity.Tests.Metallicity;
 /// </summary>
 public class MetallicityAssignerAccuracyTest(ITestOutputHelper output)
 {
-    private static readonly Lazy<Photometallicity.Calibration.CalibrationModel> Model = new(() => SyntheticCalibration.Build(200, 0.01, 11));
+    private static readonly Lazy<Photometallicity.Calibration.CalibrationModel> Model = new(() => SyntheticCalibration.Build(64, 0.01, 11));
+    private static readonly Lazy<Photometallicity.Calibration.CalibrationModel> TightModel = new(() => SyntheticCalibration.Build(64, 0.005, 12));
+
+    private static double MedianSigma(MetallicityResult r) =>
+        Median(Enumerable.Range(0, r.Count).Where(i => !double.IsNaN(r.Feh[i])).Select(i => (r.FehHi[i] - r.FehLo[i]) / 2).ToList());
 
     private (double Bias, double Width, double Coverage, int N) Stats(SyntheticCalibration.Stars stars, MetallicityResult r)
     {
@@ -45,10 +49,10 @@ public class MetallicityAssignerAccuracyTest(ITestOutputHelper output)
     [Fact]
     public void Run_WholeDomain_CalibratedPosteriors()
     {
-        var stars = SyntheticCalibration.Draw(8000, 21, 0.01, (0.005, 0.02), (0.01, 0.03));
+        var stars = SyntheticCalibration.Draw(2000, 21, 0.01, (0.005, 0.02), (0.01, 0.03));
         var r = MetallicityAssigner.Run(stars.Photometry, Model.Value, new MetallicityOptions());
         var (bias, width, cov, n) = Stats(stars, r);
-        Assert.True(n > 7000);
+        Assert.True(n > 1900);
         Assert.InRange(bias, -0.02, 0.02);
         Assert.InRange(width, 0.9, 1.1);
         Assert.InRange(cov, 0.63, 0.73);
@@ -57,11 +61,22 @@ public class MetallicityAssignerAccuracyTest(ITestOutputHelper output)
     [Fact]
     public void Run_LowFehWhereIndexLosesSensitivity_CalibratedPosteriors()
     {
-        // dX/dF is 3-6 times smaller here than at [Fe/H] = 0; true [Fe/H] kept 0.3 dex inside the domain's lower edge.
-        var stars = SyntheticCalibration.Draw(8000, 22, 0.01, (0.005, 0.02), (0.01, 0.03), fehLo: -3.0, fehHi: -2.5);
-        var r = MetallicityAssigner.Run(stars.Photometry, Model.Value, new MetallicityOptions());
+        // dX/dF is 3-5 times smaller here than at [Fe/H] = -0.5; true [Fe/H] kept 0.3 dex or more inside the domain's lower
+        // edge. Errors small enough that the posterior (~0.1 dex) is narrower than the region, so that the frequentist coverage
+        // at fixed truth approaches the credible level. (With a flat prior in [Fe/H], the posterior median is pulled towards low
+        // sensitivity by about -sigma^2 f''/f': measured -0.033 dex at sigma = 0.17 dex with band errors 0.002-0.006 mag; it
+        // is a property of that estimator and prior (-0.023 dex at 0.13 dex), and measured -0.01 dex here, with 0.005 mag
+        // intrinsic scatter.)
+        (double, double) band = (0.001, 0.003), narrow = (0.002, 0.006);
+        var stars = SyntheticCalibration.Draw(2000, 22, 0.005, band, narrow, fehLo: -3.0, fehHi: -2.5);
+        var r = MetallicityAssigner.Run(stars.Photometry, TightModel.Value, new MetallicityOptions());
+        var high = SyntheticCalibration.Draw(600, 23, 0.005, band, narrow, fehLo: -1.0, fehHi: -0.3);
+        var rh = MetallicityAssigner.Run(high.Photometry, TightModel.Value, new MetallicityOptions());
+        double lowSigma = MedianSigma(r), highSigma = MedianSigma(rh);
+        output.WriteLine($"median sigma: {lowSigma:F3} dex at [-3.0, -2.5], {highSigma:F3} dex at [-1.0, -0.3]");
+        Assert.True(lowSigma > 2.5 * highSigma, "the test region must be one where the index has lost sensitivity");
         var (bias, width, cov, n) = Stats(stars, r);
-        Assert.True(n > 7000);
+        Assert.True(n > 1900);
         Assert.InRange(bias, -0.02, 0.02);
         Assert.InRange(width, 0.9, 1.1);
         Assert.InRange(cov, 0.63, 0.73);

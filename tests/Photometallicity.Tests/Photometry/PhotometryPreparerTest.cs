@@ -72,6 +72,7 @@ public class PhotometryPreparerTest
         // And the closed forms written out (the brief's expressions), so the analytic side is checked too.
         double dC = -(R.Blue - R.Red), dX = -(R.Narrow - R.Blue) + k * (R.Blue - R.Red);
         Assert.Equal(sb * sb + sr * sr + dC * dC * sE * sE, p.VarColour[0], 14);
+        Assert.Equal(sn * sn + (1 + k) * (1 + k) * sb * sb + k * k * sr * sr + dX * dX * sE * sE, p.VarIndex[0], 14);
         Assert.Equal(-(1 + k) * sb * sb - k * sr * sr + dX * dC * sE * sE, p.CovIndexColour[0], 14);
     }
 
@@ -114,6 +115,14 @@ public class PhotometryPreparerTest
         Assert.Equal(1, result.Diagnostics.Usable);
         Assert.Equal(4, result.Diagnostics.UsableColour);
         Assert.Equal(1, result.Diagnostics.FlagCounts[PhotometryStatus.ColourOutOfRange]);
+    }
+
+    [Fact]
+    public void Run_NegativeReddeningErrorIsReddeningMissing()
+    {
+        var p = PhotometryPreparer.Run(One(20, 0.02, 19, 0.02, 21, 0.05, true, 0.05, -0.01), Options()).Photometry;
+        Assert.Equal(PhotometryStatus.ReddeningMissing, p.Status[0]);
+        Assert.True(double.IsNaN(p.Index0[0]) && double.IsNaN(p.VarColour[0]));
     }
 
     [Fact]

@@ -24,7 +24,8 @@ internal sealed class CsvColumnBuilder
     private string?[]? _strings;
     private bool[]? _missing;
     private int _count;
-    private int _present;
+    private bool _valueSeen;   // a cell that is not a missing marker has been seen (sentinels included)
+    private bool _valueBefore; // ... before the current cell
 
     public CsvColumnBuilder(string name, int index, bool forceText, bool forceNumeric, SentinelSet sentinels)
     {
@@ -57,6 +58,8 @@ internal sealed class CsvColumnBuilder
             return;
         }
         if (CsvCells.IsMissingToken(cell)) { AddMissing(); return; }
+        _valueBefore = _valueSeen;
+        _valueSeen = true;
 
         switch (_kind)
         {
@@ -104,7 +107,6 @@ internal sealed class CsvColumnBuilder
                 return;
         }
         _count++;
-        _present++;
     }
 
     /// <summary>Sets the original text of an early row of a column that became text later.</summary>
@@ -144,7 +146,6 @@ internal sealed class CsvColumnBuilder
         EnsureCapacity(ref _doubles, i + 1);
         _doubles![i] = d;
         _count++;
-        _present++;
     }
 
     private void AddMissing()
@@ -175,7 +176,7 @@ internal sealed class CsvColumnBuilder
     private void ToText(ReadOnlySpan<byte> cell)
     {
         _strings = new string?[Math.Max(16, _count * 2)];
-        if (_present > 0) BackfillRows = _count;
+        if (_valueBefore) BackfillRows = _count;
         _longs = null;
         _doubles = null;
         _bools = null;

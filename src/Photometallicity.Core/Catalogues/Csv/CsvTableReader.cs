@@ -11,6 +11,12 @@ namespace Photometallicity.Catalogues.Csv;
 /// many fields as the header. Empty cells, nan and null (any case) and the numeric sentinels of the options are
 /// missing. Column types come from the content (see <see cref="CsvColumnBuilder"/>); the options can force text or
 /// require numbers. CSV carries no units or descriptions: a table written with units and read back has none.
+/// <para>
+/// CsvHelper 34 does the tokenising, quoting, BOM and line-end handling; the leading comment lines are skipped here
+/// instead of with its CommentPrefix option, which skips comment lines anywhere in the file and would silently drop a
+/// data row whose first unquoted field starts with '#' (an id such as #12). Its FieldCountMismatch handling is left at
+/// Allow so that a ragged row gives our own message with the row and both counts.
+/// </para>
 /// </summary>
 public static class CsvTableReader
 {
@@ -40,7 +46,7 @@ public static class CsvTableReader
             long? row = e.RecordNumber > 1 ? e.RecordNumber - 1 : null;
             throw new InputException(CsvMessages.Malformed(e.Message), path, row, inner: e);
         }
-        catch (IOException e)
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException)
         {
             throw new InputException(CsvMessages.Unreadable(e.Message), path, inner: e);
         }

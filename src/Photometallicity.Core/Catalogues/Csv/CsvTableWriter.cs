@@ -1,10 +1,12 @@
+using System.Globalization;
 using CsvHelper;
 
 namespace Photometallicity.Catalogues.Csv;
 
 /// <summary>
 /// Writes a <see cref="Table"/> as CSV with CsvHelper: UTF-8 without BOM, LF line ends, a header row, invariant
-/// culture. Doubles and floats are written as their shortest round-trip text (what double.ToString("R") gives),
+/// culture. Doubles and floats are written as their shortest round-trip text (what double.ToString("R") gives,
+/// plus ".0" where that looks like an integer, so the column type survives),
 /// booleans as true/false, missing values as an empty cell, an empty (not missing) string as "". Fields with a
 /// comma, quote, line break or surrounding whitespace are quoted. Units, descriptions and table metadata are not
 /// written (CSV has no place for them; <see cref="CsvTableReader"/> reads the values back, not the units), and
@@ -49,13 +51,13 @@ public static class CsvTableWriter
         {
             double v = d.Values[r];
             if (double.IsNaN(v) || Masked(d.Missing, r)) w.WriteField(ReadOnlySpan<char>.Empty);
-            else w.WriteField(v, "R");
+            else WriteReal(w, v);
         },
         Column<float> f => (w, r) =>
         {
             float v = f.Values[r];
             if (float.IsNaN(v) || Masked(f.Missing, r)) w.WriteField(ReadOnlySpan<char>.Empty);
-            else w.WriteField(v, "R");
+            else WriteReal(w, v);
         },
         Column<long> l => Integer(l),
         Column<int> i => Integer(i),
@@ -78,6 +80,22 @@ public static class CsvTableWriter
             if (Masked(c.Missing, r)) w.WriteField(ReadOnlySpan<char>.Empty);
             else w.WriteField(c.Values[r], ReadOnlySpan<char>.Empty);
         };
+
+    /// <summary>
+    /// The shortest round-trip text ("R"), with ".0" added when that text reads as an integer (3, -0, 1E+16 stays),
+    /// so that a Double column whose values happen to be whole numbers reads back as Double, not Int64.
+    /// </summary>
+    private static void WriteReal<T>(CsvWriter w, T v) where T : IUtf8SpanFormattable
+    {
+        Span<byte> buf = stackalloc byte[40];
+        v.TryFormat(buf, out int n, "R", CultureInfo.InvariantCulture);
+        if (buf[..n].IndexOfAny(".EeIN"u8) < 0)
+        {
+            ".0"u8.CopyTo(buf[n..]);
+            n += 2;
+        }
+        w.WriteField((ReadOnlySpan<byte>)buf[..n]);
+    }
 
     private static bool Masked(bool[]? mask, int row) => mask is not null && mask[row];
 }

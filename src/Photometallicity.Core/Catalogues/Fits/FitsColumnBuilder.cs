@@ -7,9 +7,9 @@ namespace Photometallicity.Catalogues.Fits;
 /// Turns the raw array of a decoded field into a typed <see cref="Column"/> (FITS Standard 4.0, sect. 7.3.2 and 7.3.3):
 /// <list type="bullet">
 /// <item>TNULLn (integers only) marks rows whose stored value equals it as missing; IEEE NaN is missing for E and D.</item>
-/// <item>The unsigned-integer convention (TSCAL = 1, TZERO = -128 / 2^15 / 2^31 / 2^63; Table 19) gives the next wider
+/// <item>The unsigned-integer convention (TSCAL = 1, TZERO = -128 / 2^15 / 2^31 / 2^63; FITS Standard 4.0, sect. 7.3.2) gives the next wider
 /// signed type: B -> Int16, I -> Int32, J -> Int64, K -> Int64 when every value fits, otherwise Double with a note.</item>
-/// <item>Any other TSCALn/TZEROn gives Double: physical = TZERO + TSCAL x stored (eq. 7).</item>
+/// <item>Any other TSCALn/TZEROn gives Double: physical = TZERO + TSCAL x stored (the scaling equation of sect. 7.3.2).</item>
 /// <item>L: 'T' true, 'F' false, 0 missing; any other byte is an error.</item>
 /// </list>
 /// </summary>

@@ -3,8 +3,8 @@ using System.Globalization;
 namespace Photometallicity.Catalogues.Fits;
 
 /// <summary>
-/// A binary-table field format TFORMn = rTa (FITS Standard 4.0, sect. 7.3.1, Table 18): repeat count r,
-/// data type code T and an optional trailing text a. Widths in bytes per element follow Table 18.
+/// A binary-table field format TFORMn = rTa (FITS Standard 4.0, sect. 7.3.1 and its table of TFORMn data types): repeat count r,
+/// data type code T and an optional trailing text a. Widths in bytes per element follow that table.
 /// </summary>
 internal readonly record struct FitsColumnFormat(long Repeat, char Code)
 {

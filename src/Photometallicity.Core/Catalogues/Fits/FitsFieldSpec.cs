@@ -22,7 +22,7 @@ internal sealed record FitsFieldSpec(
     public bool IsIdentity => Scale == 1.0 && Zero == 0.0;
 
     /// <summary>
-    /// The unsigned-integer convention of sect. 7.3.2 (Table 19): TSCAL = 1 with TZERO = -128 for B (signed byte),
+    /// The unsigned-integer convention of sect. 7.3.2 (its table "Usage of TZEROn to represent non-default integer data types"): TSCAL = 1 with TZERO = -128 for B (signed byte),
     /// 2^15 for I, 2^31 for J or 2^63 for K.
     /// </summary>
     public bool IsOffsetInteger => Scale == 1.0 && ZeroExact is decimal z && (Code, z) switch

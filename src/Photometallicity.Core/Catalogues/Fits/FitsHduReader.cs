@@ -17,12 +17,18 @@ internal sealed record FitsHdu(FitsHeader Header, long DataStart, long DataBytes
 
 /// <summary>
 /// Walks the HDUs of a FITS file: reads each header in 2880-byte blocks up to its END card and works out the
-/// size of its data from BITPIX, NAXISn, PCOUNT and GCOUNT (FITS Standard 4.0, sect. 4.4.1, eq. 1 and 2),
+/// size of its data from BITPIX, NAXISn, PCOUNT and GCOUNT (FITS Standard 4.0, sect. 4.4.1; the data-size equations),
 /// so that image extensions and random groups are skipped correctly.
 /// </summary>
 internal static class FitsHduReader
 {
-    /// <summary>Reads the header starting at <paramref name="start"/>; null when the file ends exactly there.</summary>
+    /// <summary>A header longer than this (8 MB of cards) without an END card is taken as a damaged file.</summary>
+    public const int MaxCards = 100_000;
+
+    /// <summary>
+    /// Reads the header starting at <paramref name="start"/>; null when the file ends there or what follows is not an
+    /// extension (a block not starting with XTENSION).
+    /// </summary>
     public static FitsHdu? ReadAt(Stream stream, long start, int hduIndex, string file)
     {
         long length = stream.Length;
@@ -43,6 +49,8 @@ internal static class FitsHduReader
             position += n;
             string chunk = Encoding.Latin1.GetString(block);
             if (hduIndex == 0 && cards == 0) CheckSimple(block, file);
+            // After the last HDU a file may hold other records (sect. 3.5); anything not starting with XTENSION ends the walk.
+            if (hduIndex > 0 && cards == 0 && !chunk.StartsWith("XTENSION", StringComparison.Ordinal)) return null;
             for (int c = 0; c < 36; c++)
             {
                 if (string.CompareOrdinal(chunk, c * 80, "END     ", 0, 8) == 0 && chunk.AsSpan(c * 80 + 8, 72).Trim(' ').IsEmpty)
@@ -56,6 +64,7 @@ internal static class FitsHduReader
             }
             text.Append(chunk);
             cards += 36;
+            if (cards > MaxCards) throw new InputException(Format(FitsMessages.HeaderTooLong, hduIndex, MaxCards), file);
         }
     }
 

@@ -11,7 +11,9 @@ namespace Photometallicity.Catalogues.Fits;
 /// become ordinary cards; any other printable-ASCII key without '=' is written with the HIERARCH convention (case
 /// kept; a string that does not fit the one card is cut); keys that cannot be written either way are skipped.
 /// Values "T"/"F" are written as logicals, values in FITS integer or float syntax as numbers, anything else as a
-/// quoted string (continued on CONTINUE cards when long). Non-ASCII characters in values become '?'.</para>
+/// quoted string (continued on CONTINUE cards when long), so a string keyword read as 'T' or '42' comes back as a
+/// logical or a number, and complex or undefined values come back as strings. Non-ASCII characters in values and
+/// comments become '?'.</para>
 /// </summary>
 internal static class FitsHeaderBuilder
 {
@@ -44,7 +46,7 @@ internal static class FitsHeaderBuilder
             string n = (i + 1).ToString(CultureInfo.InvariantCulture);
             if (!FitsKeywords.IsPrintableAscii(c.Name))
                 throw new InputException(string.Format(CultureInfo.InvariantCulture, FitsMessages.NameNotAscii, c.Name), table.Source, column: c.Name);
-            w.String("TTYPE" + n, c.Name);
+            w.String("TTYPE" + n, c.Name, c.Description);
             w.String("TFORM" + n, e.Tform);
             if (!string.IsNullOrEmpty(c.Unit))
             {
@@ -53,6 +55,8 @@ internal static class FitsHeaderBuilder
                 w.String("TUNIT" + n, c.Unit);
             }
             if (e.Null is long tnull) w.Integer("TNULL" + n, tnull, "value of a missing entry");
+            // TCOMMn is not defined by FITS Standard 4.0: it is a keyword some table tools use for a column description.
+            // Readers that do not know it keep it as a plain keyword; the TTYPEn comment carries the same text (cut to fit).
             if (!string.IsNullOrEmpty(c.Description)) w.String("TCOMM" + n, c.Description);
         }
         w.String("EXTNAME", extensionName, "name of this table");

@@ -13,7 +13,10 @@ internal static class FitsKeywords
         "EXTNAME", "EXTVER", "EXTLEVEL", "GROUPS", "CONTINUE", "CHECKSUM", "DATASUM", "BLOCKED",
     };
 
-    /// <summary>Column keywords: prefix followed by the field number (sect. 7.3.2, and TCOMMn for descriptions).</summary>
+    /// <summary>
+    /// Column keywords: prefix followed by the field number (sect. 7.3.2), plus TCOMMn, which the standard does not
+    /// define but some table tools use for column descriptions (this project reads and writes it).
+    /// </summary>
     private static readonly string[] Indexed =
     [
         "NAXIS", "TTYPE", "TFORM", "TUNIT", "TSCAL", "TZERO", "TNULL", "TDISP", "TDIM", "TBCOL",

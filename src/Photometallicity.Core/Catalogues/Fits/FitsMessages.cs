@@ -8,6 +8,7 @@ internal static class FitsMessages
 {
     public const string NotFits = "not a FITS file: the first header card is not 'SIMPLE  =                    T' (FITS Standard 4.0, sect. 4.4.1.1)";
     public const string NoEndCard = "the header of HDU {0} has no END card before the end of the file (byte {1})";
+    public const string HeaderTooLong = "the header of HDU {0} has more than {1} cards and no END card; the file is damaged or not FITS";
     public const string HduTruncated = "the file ends inside the data of HDU {0}: it needs {1} bytes of data from byte {2} but the file has {3} bytes";
     public const string BadNumber = "HDU {0}: keyword {1} has the value '{2}', which is not {3}";
     public const string MissingKeyword = "HDU {0}: the required keyword {1} is missing";

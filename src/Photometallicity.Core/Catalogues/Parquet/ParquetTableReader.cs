@@ -25,7 +25,7 @@ public static class ParquetTableReader
         {
             reader = await ParquetReader.CreateAsync(path, ParquetTableWriter.Options);
         }
-        catch (Exception e) when (e is IOException or InvalidDataException or ArgumentException or NotSupportedException or InvalidOperationException)
+        catch (Exception e) when (IsDecodingFailure(e))
         {
             throw new InputException($"not a readable Parquet file: {e.Message}", path, inner: e);
         }
@@ -44,7 +44,7 @@ public static class ParquetTableReader
                 {
                     columns.Add(await ReadColumn(reader, f, (int)rows, sentinels, path));
                 }
-                catch (Exception e) when (e is IOException or InvalidDataException or IndexOutOfRangeException or InvalidOperationException)
+                catch (Exception e) when (IsDecodingFailure(e))
                 {
                     throw new InputException($"cannot read the column: {e.Message}", path, column: f.Name, inner: e);
                 }
@@ -54,6 +54,13 @@ public static class ParquetTableReader
             return table;
         }
     }
+
+    /// <summary>
+    /// A failure of the library on this file's bytes (Parquet.Net reports corrupt or truncated files with its own
+    /// exception types, Thrift errors, I/O errors or index errors): bad input, not a failure of this program.
+    /// </summary>
+    private static bool IsDecodingFailure(Exception e) =>
+        e is not (InputException or OutOfMemoryException or OperationCanceledException or NotImplementedException);
 
     private static async Task<Column> ReadColumn(ParquetReader r, DataField f, int rows, SentinelSet s, string path)
     {

@@ -8,7 +8,7 @@ namespace Photometallicity.Photometry.Extinction;
 /// k = c1 + c2 x + c3 D(x; x0, gamma) + c4 F(x), D = x^2 / ((x^2 - x0^2)^2 + x^2 gamma^2),
 /// F = 0.5392 (x - 5.9)^2 + 0.05644 (x - 5.9)^3 for x &gt;= 5.9 per micron, else 0 (FM90), with the F99
 /// R_V dependence c2 = -0.824 + 4.717/R_V, c1 = 2.030 - 3.007 c2, and x0 = 4.596, gamma = 0.99, c3 = 3.23,
-/// c4 = 0.41 (F99, Sect. 3 and its Table 3; section and table numbers recalled from memory).</item>
+/// c4 = 0.41 (F99's R_V-dependent UV curve; where in the paper each constant is printed is recalled from memory, the values are cross-checked against python3-extinction in the tests).</item>
 /// <item>Optical and IR, lambda &gt; 2700 Angstrom: a natural cubic spline in x through A(lambda)/E(B-V) anchors:
 /// 0 at x = 0; 0.265 R_V/3.1 and 0.829 R_V/3.1 at 26500 and 12200 Angstrom (F99 Table 3, scaled by R_V/3.1 as
 /// F99 prescribes); -0.426 + 1.0044 R_V, -0.050 + 1.0016 R_V, 0.701 + 1.0016 R_V and

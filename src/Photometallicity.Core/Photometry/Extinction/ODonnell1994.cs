@@ -2,7 +2,7 @@ namespace Photometallicity.Photometry.Extinction;
 
 /// <summary>
 /// O'Donnell (1994, ApJ 422, 158): the CCM89 form with revised optical/near-IR coefficients for
-/// 1.1 &lt;= x &lt; 3.3 per micron (the polynomial in y = x - 1.82 of O'Donnell 1994, Sect. 3, that replaces CCM89 eq. 3; section recalled from memory); the infrared, ultraviolet and far-UV parts are
+/// 1.1 &lt;= x &lt; 3.3 per micron (O'Donnell's 8th-order polynomial in y = x - 1.82 that replaces CCM89 eq. 3; coefficients as published, cross-checked against python3-extinction in the tests); the infrared, ultraviolet and far-UV parts are
 /// CCM89's (Cardelli, Clayton &amp; Mathis 1989, ApJ 345, 245, eqs. 2, 4, 5). As in CCM89, A_V is monochromatic
 /// at x = 1.82 per micron (5494.5 Angstrom), where a = 1 and b = 0.
 /// </summary>

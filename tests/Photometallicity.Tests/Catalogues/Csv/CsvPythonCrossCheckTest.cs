@@ -1,4 +1,5 @@
 using System.Diagnostics;
+using System.Globalization;
 using System.Text.Json;
 using Photometallicity.Catalogues;
 using Photometallicity.Tests.Support;
@@ -26,8 +27,12 @@ public class CsvPythonCrossCheckTest
             for (int c = 0; c < t.Columns.Count; c++)
             {
                 var col = t.Columns[c];
-                string expected = col.IsMissing(r) ? "" : col.GetString(r)!;
-                Assert.Equal(expected, rows[r + 1][c]);
+                string cell = rows[r + 1][c];
+                if (col.IsMissing(r)) Assert.Equal("", cell);
+                else if (col.Type is ColumnType.Double or ColumnType.Float) // same number, bit for bit
+                    Assert.Equal(BitConverter.DoubleToInt64Bits(col.GetDouble(r)),
+                        BitConverter.DoubleToInt64Bits(col is Column<float> ? float.Parse(cell, CultureInfo.InvariantCulture) : double.Parse(cell, CultureInfo.InvariantCulture)));
+                else Assert.Equal(col.GetString(r), cell);
             }
     }
 

@@ -60,11 +60,11 @@ public class CsvRoundTripTest
     {
         var t = new Table([
             new Column<string>("name", ["a,b", "", null!, " x", "q\"q"]),
-            new Column<double>("v", [0.1 + 0.2, 1e300, double.NaN, -0.0, 2.5]),
+            new Column<double>("v", [0.1 + 0.2, 1e300, double.NaN, -0.0, 2.0]),
             new Column<bool>("ok", [true, false, true, false, true], [false, false, true, false, false]),
         ]);
         string text = CsvFiles.ToCsv(t);
-        Assert.Equal("name,v,ok\n\"a,b\",0.30000000000000004,true\n\"\",1E+300,false\n,,\n\" x\",-0,false\n\"q\"\"q\",2.5,true\n", text);
+        Assert.Equal("name,v,ok\n\"a,b\",0.30000000000000004,true\n\"\",1E+300,false\n,,\n\" x\",-0.0,false\n\"q\"\"q\",2.0,true\n", text);
     }
 
     [Fact]
@@ -76,6 +76,17 @@ public class CsvRoundTripTest
         var back = CsvFiles.Read(text);
         Assert.Equal(["#id", "s"], back.Columns.Select(c => c.Name));
         Assert.Equal((IEnumerable<string?>)[" a", "b "], ((Column<string>)back["s"]).Values);
+    }
+
+    [Fact]
+    public void WriteRead_WholeNumberDoubles_StayDouble()
+    {
+        var t = new Table([new Column<double>("p", [0.0, 1.0, -3.0, 1e16]), new Column<float>("f", [2f, -0f, 1e20f, 7f])]);
+        string text = CsvFiles.ToCsv(t);
+        Assert.Equal("p,f\n0.0,2.0\n1.0,-0.0\n-3.0,1E+20\n10000000000000000.0,7.0\n", text);
+        var back = CsvFiles.Read(text);
+        Assert.Equal(ColumnType.Double, back["p"].Type);
+        Assert.Equal([0.0, 1.0, -3.0, 1e16], back["p"].ToDoubleArray());
     }
 
     [Fact]

@@ -37,6 +37,13 @@ public class CsvTableReaderTest
     }
 
     [Fact]
+    public void Read_SentinelThenText_KeepsTheSentinelText()
+    {
+        var t = CsvFiles.Read("id\n-99\nnan\nX1\n", new ReadOptions { MissingSentinels = [-99] });
+        Assert.Equal((IEnumerable<string?>)["-99", null, "X1"], ((Column<string>)t["id"]).Values);
+    }
+
+    [Fact]
     public void Read_BooleansThenText_BecomesString()
     {
         var t = CsvFiles.Read("f\nTrue\nfalse\nmaybe\n");

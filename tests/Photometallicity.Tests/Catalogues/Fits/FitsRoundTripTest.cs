@@ -157,7 +157,12 @@ public class FitsRoundTripTest
         var bytes = File.ReadAllBytes(path);
         Assert.Equal(0, bytes.Length % 2880);
         Assert.StartsWith("SIMPLE  =                    T", System.Text.Encoding.ASCII.GetString(bytes, 0, 80));
-        Assert.StartsWith("XTENSION= 'BINTABLE'", System.Text.Encoding.ASCII.GetString(bytes, 2880, 80));
+        string header = System.Text.Encoding.ASCII.GetString(bytes, 2880, 2880);
+        Assert.StartsWith("XTENSION= 'BINTABLE'", header);
+        // The description goes to TCOMMn and, cut to fit, to the comment of TTYPEn.
+        Assert.Contains("TTYPE1  = 'gmag    '           / g-band magnitude (invented)", header);
+        Assert.Contains("TCOMM1  = 'g-band magnitude (invented)'", header);
+        Assert.Contains("TUNIT1  = 'mag     '", header);
     }
 
     [Fact]

@@ -4,7 +4,7 @@ using Photometallicity.Tests.Support;
 namespace Photometallicity.Tests.Catalogues.Fits;
 
 /// <summary>
-/// TSCALn / TZEROn / TNULLn on read (FITS Standard 4.0, sect. 7.3.2, eq. 7 and Table 19, the unsigned-integer
+/// TSCALn / TZEROn / TNULLn on read (FITS Standard 4.0, sect. 7.3.2: the scaling equation and the table "Usage of TZEROn to represent non-default integer data types", the unsigned-integer
 /// convention), and numeric vector fields, on hand-made files.
 /// </summary>
 public class FitsScalingTest
@@ -21,7 +21,7 @@ public class FitsScalingTest
     [Fact]
     public void Read_UnsignedConventions_GiveWiderSignedTypes()
     {
-        // physical = stored + TZERO: Table 19 of the standard.
+        // physical = stored + TZERO (FITS Standard 4.0, sect. 7.3.2, table "Usage of TZEROn to represent non-default integer data types").
         var b = ReadOne("B", [FitsBytes.Card("TZERO1", "-128")], FitsBytes.BigEndian((byte)0, (byte)255, (byte)128), 1, 3);
         Assert.Equal(ColumnType.Int16, b["c"].Type);
         Assert.Equal([-128.0, 127.0, 0.0], b["c"].ToDoubleArray());
@@ -88,12 +88,27 @@ public class FitsScalingTest
     }
 
     [Fact]
+    public void Read_ZeroRepeatField_HasNoColumn()
+    {
+        // r = 0 is legal and means the field holds no data (FITS Standard 4.0, sect. 7.3.1).
+        using var dir = new TempDir();
+        string path = new FitsBytes().Header(FitsBytes.EmptyPrimary())
+            .Header(FitsBytes.TableHeader(4, 1, 2, FitsBytes.Card("TTYPE1", "'empty'"), FitsBytes.Card("TFORM1", "'0D'"),
+                FitsBytes.Card("TTYPE2", "'n'"), FitsBytes.Card("TFORM2", "'J'")))
+            .Data(FitsBytes.BigEndian(12)).WriteTo(dir.File("t.fits"));
+        var t = CatalogueIO.Read(path);
+        Assert.Equal(["n"], t.Columns.Select(c => c.Name));
+        Assert.Equal(12.0, t["n"].GetDouble(0));
+    }
+
+    [Fact]
     public void Read_LogicalAndStrings()
     {
         var t = ReadOne("1L", [], [(byte)'T', (byte)'F', 0], 1, 3);
         Assert.Equal([false, false, true], Enumerable.Range(0, 3).Select(t["c"].IsMissing));
         Assert.Equal("true", t["c"].GetString(0));
-        var s = ReadOne("4A", [], FitsBytes.BigEndian("ab  ", "x\0zz", "\0\0\0\0"), 4, 3);
-        Assert.Equal(["ab", "x", null], Enumerable.Range(0, 3).Select(s["c"].GetString));
+        // Text ends at the first NUL; a first byte NUL is a null string (FITS Standard 4.0, sect. 7.3.3.1).
+        var s = ReadOne("4A", [], FitsBytes.BigEndian("ab  ", "x\0zz", "\0\0\0\0", "\0abc", "    "), 4, 5);
+        Assert.Equal(["ab", "x", null, null, ""], Enumerable.Range(0, 5).Select(s["c"].GetString));
     }
 }

@@ -1,0 +1,85 @@
+using Photometallicity.Calibration;
+using Photometallicity.Errors;
+using Photometallicity.Tests.Support;
+
+namespace Photometallicity.Tests.Calibration;
+
+public class CalibrationJsonTest
+{
+    private static CalibrationResult Fit() =>
+        CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 70, Clusters = 2 }, 31),
+            SyntheticStandards.Options(bootstrap: 25) with { Provenance = new Dictionary<string, string> { ["version"] = "test" } });
+
+    [Fact]
+    public void WriteRead_RoundTripsTheModelExactly()
+    {
+        var r = Fit();
+        using var dir = new TempDir();
+        string path = dir.File("calibration.json");
+        CalibrationJson.Write(r.Model, r, path);
+        var m = CalibrationJson.Read(path);
+        var o = r.Model;
+        Assert.Equal(o.Basis, m.Basis);
+        Assert.Equal(o.Coefficients, m.Coefficients);
+        Assert.Equal(o.CoefficientCovariance, m.CoefficientCovariance);
+        Assert.Equal(o.SigmaInt, m.SigmaInt);
+        Assert.Equal(o.EnsembleCoefficients.Length, m.EnsembleCoefficients.Length);
+        for (int e = 0; e < o.EnsembleCoefficients.Length; e++) Assert.Equal(o.EnsembleCoefficients[e], m.EnsembleCoefficients[e]);
+        Assert.Equal(o.EnsembleSigmaInt, m.EnsembleSigmaInt);
+        Assert.Equal(o.Domain.Hull, m.Domain.Hull);
+        Assert.Equal(o.Domain.ExcludedColours, m.Domain.ExcludedColours);
+        Assert.Equal(o.Filters, m.Filters);
+        Assert.Equal(o.RmsDex, m.RmsDex);
+        Assert.Equal(o.StandardsUsed, m.StandardsUsed);
+        Assert.Equal("test", m.Provenance["version"]);
+        // Writing the read model again gives the same bytes as writing the original (model part; no fit block).
+        string a = dir.File("a.json"), b = dir.File("b.json");
+        CalibrationJson.Write(o, null, a);
+        CalibrationJson.Write(m, null, b);
+        Assert.Equal(File.ReadAllBytes(a), File.ReadAllBytes(b));
+        Assert.Contains("\"format_version\": 1", File.ReadAllText(path));
+        Assert.Contains("\"standards\"", File.ReadAllText(path));
+    }
+
+    [Theory]
+    [InlineData("\"sigma_int_mag\":", "\"sigma_int_magX\":", "model.sigma_int_mag")]
+    [InlineData("\"format_version\": 1", "\"format_version\": 9", "format_version")]
+    [InlineData("\"degree\":", "\"degree\": \"two\", \"x\":", "model.degree")]
+    public void Read_Malformed_NamesFileAndKey(string find, string replace, string key)
+    {
+        var r = Fit();
+        using var dir = new TempDir();
+        string path = dir.File("bad.json");
+        CalibrationJson.Write(r.Model, null, path);
+        string text = File.ReadAllText(path);
+        int at = text.IndexOf(find, StringComparison.Ordinal);
+        Assert.True(at >= 0);
+        File.WriteAllText(path, text[..at] + replace + text[(at + find.Length)..]);
+        var e = Assert.Throws<InputException>(() => CalibrationJson.Read(path));
+        Assert.Contains(path, e.Message);
+        Assert.Contains($"key '{key}'", e.Message);
+    }
+
+    [Fact]
+    public void Read_UnknownTopLevelKey_IsAnError()
+    {
+        using var dir = new TempDir();
+        string path = dir.File("c.json");
+        CalibrationJson.Write(Fit().Model, null, path);
+        string text = File.ReadAllText(path);
+        File.WriteAllText(path, text.Replace("\"filters\":", "\"filtres\": 1, \"filters\":"));
+        var e = Assert.Throws<InputException>(() => CalibrationJson.Read(path));
+        Assert.Contains("'filtres'", e.Message);
+    }
+
+    [Fact]
+    public void Require_OtherFilterSet_ThrowsInputExceptionNamingFile()
+    {
+        var m = Fit().Model;
+        CalibrationCompatibility.Require(m, SyntheticStandards.Filters, "cal.json"); // same set: no exception
+        var other = SyntheticStandards.Filters with { NarrowBand = "hk_other" };
+        var e = Assert.Throws<InputException>(() => CalibrationCompatibility.Require(m, other, "cal.json"));
+        Assert.Contains("cal.json", e.Message);
+        Assert.Contains("hk_other", e.Message);
+    }
+}
