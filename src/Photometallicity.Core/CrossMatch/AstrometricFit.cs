@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>The outcome of fitting an <see cref="AstrometricTransform"/> to matched pairs.</summary>
@@ -30,6 +31,7 @@ public static class AstrometricFit
     // Floor on the clipping scatter (1e-11 rad = 2 micro-arcsec) so that noise-free data are not clipped away.
     private const double SigmaFloorRad = 1e-11;
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static AstrometricFitResult Fit(double[] lXi, double[] lEta, double[] rXi, double[] rEta, bool rotationScale)
     {
         int n = lXi.Length;
@@ -74,6 +76,7 @@ public static class AstrometricFit
         return new AstrometricFitResult(t, scXi / sqrtN, scEta / sqrtN, scXi, scEta, used, n - used);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static AstrometricTransform Solve(double[] lXi, double[] lEta, double[] rXi, double[] rEta, bool[] keep, bool rotationScale)
     {
         double mlx = 0, mly = 0, mrx = 0, mry = 0;
@@ -107,6 +110,7 @@ public static class AstrometricFit
         return new AstrometricTransform(a, b, mrx - (a * mlx - b * mly), mry - (b * mlx + a * mly));
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void Residuals(AstrometricTransform t, double[] lXi, double[] lEta, double[] rXi, double[] rEta, double[] resXi, double[] resEta)
     {
         for (int i = 0; i < lXi.Length; i++)

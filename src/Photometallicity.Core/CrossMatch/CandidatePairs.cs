@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -31,7 +32,7 @@ public sealed class CandidatePairs
         var counts = new int[n];
         var chunkRight = new int[chunks][];
         var chunkChord = new double[chunks][];
-        Chunks.For(n, (c, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var idx = new List<int>(hi - lo);
             var d2 = new List<double>(hi - lo);
@@ -50,7 +51,7 @@ public sealed class CandidatePairs
         var right = new int[start[n]];
         var chord = new double[start[n]];
         // Scatter each chunk's candidates to their left rows (disjoint destinations, so chunks run in parallel).
-        Chunks.For(n, (c, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             int at = 0;
             var cr = chunkRight[c];
@@ -68,6 +69,7 @@ public sealed class CandidatePairs
     }
 
     /// <summary>For each right row, how many left rows have it as a candidate.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public int[] RightCounts(int rightCount)
     {
         var c = new int[rightCount];

@@ -47,7 +47,10 @@ public sealed record CrossMatchResult
     /// <summary>Scatter (standard deviation per axis) of the secure pairs about the solution, arcsec.</summary>
     public (double DRaCosDecArcsec, double DDecArcsec) OffsetScatter { get; init; } = (double.NaN, double.NaN);
 
-    /// <summary>Secure pairs in the last solution (unique both ways within the radius), and how many of them were kept after clipping.</summary>
+    /// <summary>
+    /// Secure pairs in the last solution (unique both ways within the radius, among at most 200 000 left rows spread
+    /// evenly over the field), and how many of them were kept after clipping.
+    /// </summary>
     public int SecurePairs { get; init; }
     public int SecurePairsUsed { get; init; }
 

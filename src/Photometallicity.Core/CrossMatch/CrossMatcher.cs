@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Diagnostics;
 using Microsoft.Extensions.Logging;
 using Photometallicity.Errors;
@@ -65,7 +66,7 @@ public static class CrossMatcher
             iterations = outcome.Iterations;
             if (options.AutoRadius && outcome.Fit is not null)
             {
-                var choice = ChooseRadius(rawTree, solver.MapLeft(outcome.Transform), radius);
+                var choice = ChooseRadius(rawTree, solver.MapSample(outcome.Transform), radius);
                 radius = choice.Radius;
                 radiusReason = choice.Reason;
                 outcome = solver.Iterate(outcome.Transform, radius.Radians, options.MaxIterations,
@@ -89,7 +90,7 @@ public static class CrossMatcher
         logger?.LogDebug("crossmatch: tree of the corrected catalogue {Ms}", Elapsed(clock));
         if (options.AutoRadius && outcome is null)
         {
-            var choice = ChooseRadius(tree, left, radius);
+            var choice = ChooseRadius(tree, SampleOf(left), radius);
             radius = choice.Radius;
             radiusReason = choice.Reason + " (no offset correction was applied)";
         }
@@ -99,19 +100,29 @@ public static class CrossMatcher
         var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
         var sep = new double[nLeft];
         var blend = new bool[nLeft];
+        Chunks.For(nLeft, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++)
+            {
+                int r = rightIndex[i];
+                blend[i] = pairs.CountOf(i) >= 2;
+                if (r < 0)
+                {
+                    sep[i] = double.NaN;
+                    continue;
+                }
+                var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
+                sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
+            }
+        });
         int matched = 0, blends = 0, lost = 0;
         for (int i = 0; i < nLeft; i++)
         {
-            int r = rightIndex[i];
-            blend[i] = pairs.CountOf(i) >= 2;
-            if (r < 0)
+            if (rightIndex[i] < 0)
             {
-                sep[i] = double.NaN;
                 if (pairs.CountOf(i) > 0) lost++;
                 continue;
             }
-            var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
-            sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
             matched++;
             if (blend[i]) blends++;
         }
@@ -169,6 +180,24 @@ public static class CrossMatcher
 
     private static string Elapsed(Stopwatch clock) =>
         $"{clock.ElapsedMilliseconds} ms wall, {System.Diagnostics.Process.GetCurrentProcess().TotalProcessorTime.TotalMilliseconds:0} ms process CPU";
+
+    /// <summary>At most 200 000 of the vectors, evenly spread along their spatial order.</summary>
+    private static UnitVectors SampleOf(UnitVectors v)
+    {
+        var rows = FalseMatchRate.Sample(v.Order, 200_000);
+        var x = new double[rows.Length];
+        var y = new double[rows.Length];
+        var z = new double[rows.Length];
+        var order = new int[rows.Length];
+        for (int k = 0; k < rows.Length; k++)
+        {
+            x[k] = v.X[rows[k]];
+            y[k] = v.Y[rows[k]];
+            z[k] = v.Z[rows[k]];
+            order[k] = k;
+        }
+        return new UnitVectors(x, y, z).WithOrder(order);
+    }
 
     private static AutoRadiusChoice ChooseRadius(SkyKdTree tree, UnitVectors queries, Angle guess)
     {

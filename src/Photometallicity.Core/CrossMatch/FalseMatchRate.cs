@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using Photometallicity.Units;
 
 namespace Photometallicity.CrossMatch;
@@ -40,7 +41,7 @@ public static class FalseMatchRate
         double annulusSqArcmin = Math.PI * (outer * outer - inner * inner) * sqArcminPerSr;
         var rows = Sample(left.Order, ExpectedSample);
         var p = new double[rows.Length];
-        Chunks.For(rows.Length, (_, lo, hi) =>
+        Chunks.For(rows.Length, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int k = lo; k < hi; k++)
             {
@@ -62,7 +63,7 @@ public static class FalseMatchRate
         var (ss, cs) = Math.SinCos(Math.Min(radius.Radians * ShiftRadii, 0.5));
         var rows = Sample(left.Order, MeasuredSample);
         var hits = new int[rows.Length];
-        Chunks.For(rows.Length, (_, lo, hi) =>
+        Chunks.For(rows.Length, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int k = lo; k < hi; k++)
             {

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -21,6 +22,7 @@ public static class OneToOneMatcher
     }
 
     /// <summary>Right index per left row (-1 when none) and the squared chord of the accepted pair (+inf when none).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static (int[] RightIndex, double[] Chord2) Assign(CandidatePairs pairs, int rightCount)
     {
         int nLeft = pairs.LeftCount;

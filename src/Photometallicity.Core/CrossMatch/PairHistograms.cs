@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -15,7 +16,7 @@ internal static class PairHistograms
         double width = maxArcsec / bins;
         var perChunk = new long[Chunks.Count(queries.Count)][];
         var order = queries.Order;
-        Chunks.For(queries.Count, (c, lo, hi) =>
+        Chunks.For(queries.Count, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var h = new long[bins];
             var idx = new List<int>();
@@ -52,7 +53,7 @@ internal static class PairHistograms
         int side = 2 * half + 1;
         var order = FalseMatchRate.Sample(left.Order, maxRows);
         var perChunk = new long[Chunks.Count(order.Length)][];
-        Chunks.For(order.Length, (c, lo, hi) =>
+        Chunks.For(order.Length, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var h = new long[side * side];
             var idx = new List<int>();

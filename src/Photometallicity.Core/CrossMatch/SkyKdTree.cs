@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -49,6 +50,7 @@ public sealed class SkyKdTree
         return tree;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void BuildNode(int node, int lo, int hi, int depth)
     {
         if (hi - lo <= LeafSize) return;
@@ -85,6 +87,7 @@ public sealed class SkyKdTree
     private double[] Axis(int d) => d == 0 ? _x : d == 1 ? _y : _z;
 
     /// <summary>Quickselect (Wirth's variant of Hoare's FIND): puts the k-th smallest of c[lo..hi] at k.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void Select(double[] c, int lo, int hi, int k)
     {
         while (hi > lo)
@@ -135,6 +138,7 @@ public sealed class SkyKdTree
         return best;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void Nearest(int node, int lo, int hi, double qx, double qy, double qz, ref double best2, ref int best)
     {
         if (hi - lo <= LeafSize)
@@ -172,6 +176,7 @@ public sealed class SkyKdTree
         if (Count > 0) Within(0, 0, Count, qx, qy, qz, maxChord2, indices, chord2);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void Within(int node, int lo, int hi, double qx, double qy, double qz, double r2, List<int> indices, List<double> chord2)
     {
         if (hi - lo <= LeafSize)
@@ -199,6 +204,7 @@ public sealed class SkyKdTree
     public int CountWithin(double qx, double qy, double qz, double maxChord2) =>
         Count > 0 ? CountNode(0, 0, Count, qx, qy, qz, maxChord2) : 0;
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private int CountNode(int node, int lo, int hi, double qx, double qy, double qz, double r2)
     {
         if (hi - lo <= LeafSize)
@@ -224,6 +230,7 @@ public sealed class SkyKdTree
     public bool AnyWithin(double qx, double qy, double qz, double maxChord2) =>
         Count > 0 && AnyNode(0, 0, Count, qx, qy, qz, maxChord2);
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private bool AnyNode(int node, int lo, int hi, double qx, double qy, double qz, double r2)
     {
         if (hi - lo <= LeafSize)

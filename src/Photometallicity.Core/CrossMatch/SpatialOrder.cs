@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -8,12 +9,13 @@ namespace Photometallicity.CrossMatch;
 /// </summary>
 internal static class SpatialOrder
 {
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static int[] Of(UnitVectors p)
     {
         int n = p.Count;
         var keys = new ulong[n];
         var order = new int[n];
-        Chunks.For(n, (_, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int i = lo; i < hi; i++)
             {

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -88,7 +89,7 @@ public sealed class TangentPlane
     {
         var xi = new double[p.Count];
         var eta = new double[p.Count];
-        Chunks.For(p.Count, (_, lo, hi) =>
+        Chunks.For(p.Count, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int i = lo; i < hi; i++) (xi[i], eta[i]) = Project(p.X[i], p.Y[i], p.Z[i]);
         });

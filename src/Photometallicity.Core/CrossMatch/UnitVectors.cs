@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>Columnar unit vectors (x, y, z) of sky positions, and the way back to (RA, Dec) in degrees.</summary>
@@ -25,9 +26,12 @@ public sealed class UnitVectors
     public int[] Order => _order ??= SpatialOrder.Of(this);
 
     /// <summary>These vectors with the visiting order of <paramref name="like"/> (for slightly moved copies of the same points).</summary>
-    public UnitVectors WithOrderOf(UnitVectors like)
+    public UnitVectors WithOrderOf(UnitVectors like) => WithOrder(like.Order);
+
+    /// <summary>These vectors with a given visiting order (a permutation of 0 .. Count-1).</summary>
+    public UnitVectors WithOrder(int[] order)
     {
-        _order = like.Order;
+        _order = order;
         return this;
     }
 
@@ -41,7 +45,7 @@ public sealed class UnitVectors
         var x = new double[n];
         var y = new double[n];
         var z = new double[n];
-        Chunks.For(n, (_, lo, hi) =>
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
         {
             for (int i = lo; i < hi; i++)
             {
