@@ -69,19 +69,16 @@ internal static class CrossValidation
     }
 
     /// <summary>
-    /// The lowest degree whose score is within one standard error of the best score (the one-standard-error
-    /// rule, Hastie, Tibshirani &amp; Friedman 2009, section 7.10.1): a lower degree is preferred because a
-    /// polynomial's extra freedom is spent near the edges of the data, where it turns over.
+    /// The degree with the best (lowest) cross-validated score. The one-standard-error rule (Hastie, Tibshirani &amp;
+    /// Friedman 2009, section 7.10.1) would prefer a lower degree, but a model too simple for the standards biases
+    /// every star's [Fe/H] in a way the bootstrap cannot show, while the extra variance of a richer model is carried
+    /// by the bootstrap ensemble; degrees that turn over inside the data are already excluded (DegreeSelection).
+    /// Ties go to the lower degree.
     /// </summary>
     public static (int Degree, string Reason) Choose(IReadOnlyList<Outcome> outcomes)
     {
         var ok = outcomes.Where(o => o.Failure is null && double.IsFinite(o.Score)).ToList();
-        var best = ok.MinBy(o => o.Score)!;
-        double limit = best.Score + (double.IsFinite(best.StandardError) ? best.StandardError : 0);
-        var chosen = ok.Where(o => o.Score <= limit).MinBy(o => o.Degree)!;
-        string reason = chosen.Degree == best.Degree
-            ? $"degree {chosen.Degree} has the best cross-validated score ({Math.Sqrt(chosen.Score):G4} mag rms)"
-            : $"degree {chosen.Degree} ({Math.Sqrt(chosen.Score):G4} mag rms) is within one standard error of the best, degree {best.Degree} ({Math.Sqrt(best.Score):G4} mag rms); the lower degree is preferred (one-standard-error rule)";
-        return (chosen.Degree, reason);
+        var best = ok.OrderBy(o => o.Score).ThenBy(o => o.Degree).First();
+        return (best.Degree, $"degree {best.Degree} has the best cross-validated score ({Math.Sqrt(best.Score):G4} mag rms)");
     }
 }

@@ -35,14 +35,16 @@ public sealed record DemoTruth
     public double DwarfIndexOffset { get; init; } = 0.12;      // mag: invented gravity effect of foreground dwarfs
 
     /// <summary>
-    /// The invented index behaviour of red giants: X0 = f(C0, [Fe/H]). At fixed colour the index grows with
-    /// [Fe/H], more strongly for cooler (redder) stars, and loses sensitivity at the lowest [Fe/H] through a
-    /// softplus in [Fe/H]. Invented for the demonstration; not a published relation.
+    /// The invented index behaviour of red giants: X0 = f(C0, [Fe/H]). At fixed colour the index grows with [Fe/H],
+    /// more strongly for cooler (redder) stars, and loses sensitivity towards the lowest [Fe/H]: the slope
+    /// 0.04 + 0.14 ([Fe/H] + 3.8) mag/dex falls to 0.04 at [Fe/H] = -3.8 (the demo field has no star below -3.6).
+    /// Invented for the demonstration; not a published relation.
     /// </summary>
     public static double GiantIndex(double colour0, double feh)
     {
-        double s = 0.5 * Math.Log(1.0 + Math.Exp((feh + 2.8) / 0.5));
-        return -0.70 + 0.25 * (colour0 - 1.0) + (0.34 + 0.22 * (colour0 - 1.0)) * s;
+        double u = feh + 3.8;
+        double g = 0.04 * u + 0.07 * u * u;
+        return -1.15 + 0.25 * (colour0 - 1.0) + (1.0 + 0.6 * (colour0 - 1.0)) * g;
     }
 
     /// <summary>The invented red-giant branch: dereddened colour C0 against absolute blue magnitude and [Fe/H].</summary>
