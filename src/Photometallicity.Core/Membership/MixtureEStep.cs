@@ -59,7 +59,7 @@ internal static class MixtureEStep
                 double lb = lnF1 - lnArea + of;
                 double mx = Math.Max(la, lb);
                 double ri;
-                if (double.IsNegativeInfinity(mx)) { ri = 0; mx = -700; }
+                if (double.IsNegativeInfinity(mx)) ri = 0;
                 else
                 {
                     double ea = Math.Exp(la - mx), eb = Math.Exp(lb - mx);
