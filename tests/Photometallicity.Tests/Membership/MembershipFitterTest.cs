@@ -131,6 +131,19 @@ public class MembershipFitterTest
     }
 
     [Fact]
+    public void Run_WithFiducialLocus_RecoversMembers()
+    {
+        var f = SyntheticField.Make(Small);
+        // the generator's own ridge, tabulated against absolute magnitude
+        var absMag = Enumerable.Range(0, 31).Select(k => -4.0 + 0.2 * k).ToArray();
+        var colour = absMag.Select(m => SyntheticField.RidgeColour(m + Small.DistanceModulus, Small.DistanceModulus)).ToArray();
+        var r = MembershipFitter.Run(f.Inputs, SyntheticField.Options(Small) with { Fiducial = new FiducialLocus(absMag, colour) });
+        Assert.True(SyntheticField.Auc(r.PMember, f.IsMember) >= 0.97);
+        Assert.True(Math.Abs(r.ExpectedMembers - f.MembersInField) <= 0.05 * f.MembersInField, $"N {r.ExpectedMembers:F1} vs {f.MembersInField}");
+        Assert.Equal(SyntheticField.RidgeColour(22.0, Small.DistanceModulus), r.RidgeColour[Array.FindIndex(r.RidgeMag, m => Math.Abs(m - 22.0) < 0.2)], 1);
+    }
+
+    [Fact]
     public void Run_MismatchedColumn_NamesIt()
     {
         var f = SyntheticField.Make(Small);
