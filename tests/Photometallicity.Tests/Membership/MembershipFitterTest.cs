@@ -131,6 +131,20 @@ public class MembershipFitterTest
     }
 
     [Fact]
+    public void Run_WithoutMetallicityTerm_FitsMdfAfterwardsAndReportsBoth()
+    {
+        var f = SyntheticField.Make(Small);
+        var r = MembershipFitter.Run(f.Inputs, SyntheticField.Options(Small) with { UseMetallicity = false });
+        Assert.Same(r.MdfWithoutMetallicityTerm, r.Mdf);
+        Assert.NotNull(r.MdfWithMetallicityTerm);
+        Assert.Null(r.ForegroundMdf); // the configured fit has no metallicity term
+        Assert.True(SyntheticField.Auc(r.PMember, f.IsMember) >= 0.97);
+        // the members' MDF is still found, if pulled towards the metal-rich foreground by the weaker separation
+        Assert.InRange(r.Mdf!.Mean, Small.MdfMean - 0.1, Small.MdfMean + 0.3);
+        Assert.InRange(r.MdfWithMetallicityTerm!.Mean, Small.MdfMean - 3 * r.MdfWithMetallicityTerm.MeanErr - 0.02, Small.MdfMean + 3 * r.MdfWithMetallicityTerm.MeanErr + 0.02);
+    }
+
+    [Fact]
     public void Run_WithFiducialLocus_RecoversMembers()
     {
         var f = SyntheticField.Make(Small);
