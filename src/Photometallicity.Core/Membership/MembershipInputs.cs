@@ -9,7 +9,9 @@ namespace Photometallicity.Membership;
 /// (mag), with <see cref="Colour0"/> = blue0 - red0 (mag); variances in mag^2. <see cref="Usable"/> marks rows
 /// with a finite colour and magnitude. <see cref="Feh"/> holds each star's [Fe/H] likelihood (row-indexed; Length 0
 /// where there is none) or is null. Optional astrometry: proper motions in mas/yr, parallax in mas, each with its
-/// 1-sigma error; NaN where missing.
+/// 1-sigma error; NaN where missing. <see cref="VarMag"/> is carried but not used by the CMD term: the magnitude
+/// error moves a star along the giant branch, whose colour changes by only ~0.2 mag per mag, a second-order effect
+/// next to the colour error.
 /// </summary>
 public sealed class MembershipInputs
 {

@@ -23,6 +23,8 @@ public sealed record MembershipOptions
     public double OuterRadiusMultiple { get; init; } = 3.0;
     public FiducialLocus? Fiducial { get; init; }
     public int MaxIterations { get; init; } = 300;
+    /// <summary>Master seed of the run. The fit itself draws no random numbers (it is deterministic); kept so that
+    /// a resampling estimate of the errors can derive its stream from it.</summary>
     public ulong Seed { get; init; }
 
     /// <summary>Degree of the learned ridge-line polynomial colour(mag).</summary>

@@ -48,7 +48,8 @@ internal static class MembershipReport
         double pval = 1 - ChiSquared.CDF(k, ts);
         bool significant = pval < MembershipFitter.DetectionPValue;
         if (!significant)
-            warnings.Add($"no significant galaxy: expected members {expected:F1} +/- {structure.MemberCountErr:F1} consistent with zero " +
+            warnings.Add($"no significant galaxy: expected members {expected:F1}" +
+                         (double.IsFinite(structure.MemberCountErr) ? $" +/- {structure.MemberCountErr:F1}" : " (error unavailable)") + " consistent with zero " +
                          $"(2 dlnL = {ts:F1} against a foreground-only model, p = {pval:G2} for {k} target parameters)");
         if (prof.HalfLight <= Math.Exp(setup.Bounds.LnAMin) * 1.001)
             warnings.Add($"the half-light radius hit its lower bound ({prof.HalfLight:F3} arcmin)");

@@ -14,6 +14,14 @@ internal static class MixtureEStep
     public const int SumR = 0, LogL = 1, SumRMag = 2, SumRCmd = 3,
         TW = 4, TM1 = 5, TM2 = 6, FW = 7, FM1 = 8, FM2 = 9, Width = 10;
 
+    /// <summary>ln(e^a + e^b) without overflow; -infinity when both are.</summary>
+    public static double LogSumExp(double a, double b)
+    {
+        double mx = Math.Max(a, b);
+        if (double.IsNegativeInfinity(mx)) return mx;
+        return mx + Math.Log(Math.Exp(a - mx) + Math.Exp(b - mx));
+    }
+
     /// <summary>Runs the E-step; writes r, and the non-spatial log terms of each component (for the Hessian).</summary>
     public static double[] Run(MixtureData d, MixtureParameters p, double[] fgCmdLog, bool useFeh, int threads,
         double[] r, double[] otherT, double[] otherF)
@@ -57,15 +65,9 @@ internal static class MixtureEStep
                 otherT[i] = ot; otherF[i] = of;
                 double la = lnF + Math.Log(ev.Density(d.X[i], d.Y[i])) - lnPhi + ot;
                 double lb = lnF1 - lnArea + of;
-                double mx = Math.Max(la, lb);
-                double ri;
-                if (double.IsNegativeInfinity(mx)) { ri = 0; mx = -700; }
-                else
-                {
-                    double ea = Math.Exp(la - mx), eb = Math.Exp(lb - mx);
-                    ri = ea / (ea + eb);
-                    acc[LogL] += mx + Math.Log(ea + eb);
-                }
+                double ll = LogSumExp(la, lb);
+                double ri = double.IsNegativeInfinity(ll) ? 0 : Math.Exp(la - ll);
+                if (!double.IsNegativeInfinity(ll)) acc[LogL] += ll;
                 r[i] = ri;
                 acc[SumR] += ri;
                 if (d.HasCmd[i]) { acc[SumRMag] += ri * d.Mag[i]; acc[SumRCmd] += ri; }

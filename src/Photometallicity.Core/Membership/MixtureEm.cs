@@ -25,6 +25,9 @@ internal sealed class MixtureEm
         OtherF = new double[d.RowCount];
     }
 
+    /// <summary>Change of ln L per iteration (besides the per-star part) below which EM stops: far below the 0.5 of a 1-sigma change.</summary>
+    public const double AbsoluteTolerance = 1e-4;
+
     public double[] R { get; }
     public double[] OtherT { get; }
     public double[] OtherF { get; }
@@ -35,7 +38,7 @@ internal sealed class MixtureEm
     /// <summary>Iterates to convergence; on return R is consistent with <paramref name="p"/>.</summary>
     public (int Iterations, bool Converged) Iterate(MixtureParameters p, double[] fgCmdLog, int maxIter, double tolPerStar)
     {
-        double tol = tolPerStar * _d.Positioned.Length + 1e-6;
+        double tol = tolPerStar * _d.Positioned.Length + AbsoluteTolerance;
         double prev = double.NegativeInfinity;
         var lastMove = new double[] { 0.1 * p.Profile.HalfLight, 0.1 * p.Profile.HalfLight, 0.1, 0.05, 0.05 };
         _spatialGain = double.PositiveInfinity;

@@ -18,7 +18,7 @@ internal sealed class MixtureParameters
     public MixtureParameters Clone()
     {
         var c = (MixtureParameters)MemberwiseClone();
-        c.Ridge = Ridge.IsFiducial ? Ridge : new RidgeLine(Ridge.Degree, Ridge.Pivot, (double[])Ridge.Coefficients.Clone(), Ridge.SigmaInt, Ridge.SigmaFloor);
+        c.Ridge = Ridge.Copy();
         return c;
     }
 }

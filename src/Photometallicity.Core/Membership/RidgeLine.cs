@@ -25,6 +25,11 @@ internal sealed class RidgeLine
         _fidMag = apparentMag; _fidColour = colour;
     }
 
+    /// <summary>An independent copy (the width and coefficients are updated in place by the fit).</summary>
+    public RidgeLine Copy() => _fidMag is not null
+        ? new RidgeLine(_fidMag, _fidColour!, SigmaInt, SigmaFloor)
+        : new RidgeLine(Degree, Pivot, (double[])Coefficients.Clone(), SigmaInt, SigmaFloor);
+
     public int Degree { get; }
     public double Pivot { get; }
     public double[] Coefficients { get; private set; }

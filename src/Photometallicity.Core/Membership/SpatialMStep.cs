@@ -6,12 +6,13 @@ namespace Photometallicity.Membership;
 /// where Phi is the profile's integral over the footprint (so Sigma / Phi is a density on the field). There is no
 /// closed form, so a Nelder-Mead search in (x0, y0, ln r_h, k1, k2) starts from the current values; the result is
 /// never worse than the start, which keeps EM's ascent (a generalised EM step, Dempster, Laird &amp; Rubin 1977).
-/// Stars with r_i &lt; 1e-6 add nothing measurable and are skipped; above <see cref="MaxStars"/> candidates a fixed
-/// stride subsample (weights scaled up) is used. The E-step that follows always uses every star.
+/// The search runs on a sample of at most about <see cref="MaxStars"/> stars (all likely members; the stars of small r by
+/// a fixed stride of the row index, weights scaled up; r &lt; 1e-6 skipped); its proposal is accepted only if the exact
+/// Q over every star has risen, so the ascent holds exactly. The E-step that follows always uses every star.
 /// </summary>
 internal static class SpatialMStep
 {
-    public const int MaxStars = 60_000;
+    public const int MaxStars = 80_000;
 
     /// <summary>Simplex spread in Q (log-likelihood units) at which the search stops: far below one unit of ln L.</summary>
     public const double FunctionTolerance = 1e-3;
@@ -20,30 +21,27 @@ internal static class SpatialMStep
 
     public static SurfaceDensityProfile Run(MixtureData d, double[] r, SurfaceDensityProfile start, Bounds bounds, int threads, int maxEvals, out double phi, double[]? step, out double gain)
     {
-        var cand = new List<int>();
+        // Search sample: every star with r >= 0.01; fainter-weighted candidates (1e-6 < r < 0.01) by a fixed stride of
+        // the row index, their weights scaled by the stride. The search is thus cheap and its sample nearly fixed.
         double rTotal = 0;
+        int nHigh = 0, nLow = 0;
         foreach (int i in d.Positioned)
         {
             rTotal += r[i];
-            if (r[i] > 1e-6) cand.Add(i);
+            if (r[i] >= 0.01) nHigh++;
+            else if (r[i] > 1e-6) nLow++;
         }
-        int stride = Math.Max(1, (cand.Count + MaxStars - 1) / MaxStars);
-        int[] rows;
-        if (stride == 1) rows = cand.ToArray();
-        else
+        int strideHigh = Math.Max(1, (nHigh + MaxStars / 2 - 1) / (MaxStars / 2));
+        int strideLow = Math.Max(1, (nLow + Math.Max(MaxStars - nHigh / strideHigh, 1) - 1) / Math.Max(MaxStars - nHigh / strideHigh, 1));
+        var xsL = new List<double>(); var ysL = new List<double>(); var wsL = new List<double>();
+        foreach (int i in d.Positioned)
         {
-            rows = new int[(cand.Count + stride - 1) / stride];
-            for (int k = 0; k < rows.Length; k++) rows[k] = cand[k * stride];
+            double ri = r[i];
+            int stride = ri >= 0.01 ? strideHigh : ri > 1e-6 ? strideLow : 0;
+            if (stride == 0 || i % stride != 0) continue;
+            xsL.Add(d.X[i]); ysL.Add(d.Y[i]); wsL.Add(ri * stride);
         }
-        double sub = 0;
-        foreach (int i in rows) sub += r[i];
-        double full = 0;
-        foreach (int i in cand) full += r[i];
-        double scale = sub > 0 ? full / sub : 1.0;
-        var xs = new double[rows.Length];
-        var ys = new double[rows.Length];
-        var ws = new double[rows.Length];
-        for (int k = 0; k < rows.Length; k++) { xs[k] = d.X[rows[k]]; ys[k] = d.Y[rows[k]]; ws[k] = r[rows[k]] * scale; }
+        var xs = xsL.ToArray(); var ys = ysL.ToArray(); var ws = wsL.ToArray();
         var kind = start.Kind;
 
         double Objective(double[] t)
@@ -65,12 +63,34 @@ internal static class SpatialMStep
         var x0 = new[] { start.X0, start.Y0, Math.Log(start.HalfLight), start.K1, start.K2 };
         double h = start.HalfLight;
         step ??= [0.1 * h, 0.1 * h, 0.1, 0.05, 0.05];
-        double q0 = Objective(x0);
-        var (best, qBest, _) = NelderMead.Minimise(Objective, x0, step, FunctionTolerance, maxEvals);
-        gain = q0 - qBest;
-        var result = new SurfaceDensityProfile(kind, best[0], best[1], Math.Exp(best[2]), best[3], best[4]);
-        phi = d.Footprint.Integrate(result.CreateEvaluator());
-        return result;
+        var (best, _, _) = NelderMead.Minimise(Objective, x0, step, FunctionTolerance, maxEvals);
+        var proposal = new SurfaceDensityProfile(kind, best[0], best[1], Math.Exp(best[2]), best[3], best[4]);
+        // Accept only if the exact Q over all stars has not decreased: this keeps the EM ascent exact.
+        double qOld = ExactQ(d, r, start, rTotal, threads, out double phiOld);
+        double qNew = ExactQ(d, r, proposal, rTotal, threads, out double phiNew);
+        gain = qNew - qOld;
+        if (!(gain > 0)) { gain = 0; phi = phiOld; return start; }
+        phi = phiNew;
+        return proposal;
+    }
+
+    /// <summary>Q(theta) over every positioned star.</summary>
+    private static double ExactQ(MixtureData d, double[] r, SurfaceDensityProfile p, double rTotal, int threads, out double phi)
+    {
+        var ev = p.CreateEvaluator();
+        phi = d.Footprint.Integrate(ev);
+        var pos = d.Positioned;
+        var s = ChunkedReduction.Sum(pos.Length, 1, threads, (a, b, acc) =>
+        {
+            double q = 0;
+            for (int k = a; k < b; k++)
+            {
+                int i = pos[k];
+                if (r[i] > 0) q += r[i] * Math.Log(ev.Density(d.X[i], d.Y[i]));
+            }
+            acc[0] = q;
+        });
+        return s[0] - rTotal * Math.Log(phi);
     }
 
     public static bool Inside(double[] t, Bounds b) =>

@@ -35,9 +35,8 @@ internal static class StructureUncertainty
                     int i = pos[k];
                     double la = lnF + Math.Log(ev.Density(d.X[i], d.Y[i])) - lnPhi + otherT[i];
                     double lb = lnF1 - lnArea + otherF[i];
-                    double mx = Math.Max(la, lb);
-                    if (double.IsNegativeInfinity(mx)) continue;
-                    q += mx + Math.Log(Math.Exp(la - mx) + Math.Exp(lb - mx));
+                    double ll = MixtureEStep.LogSumExp(la, lb);
+                    if (!double.IsNegativeInfinity(ll)) q += ll;
                 }
                 acc[0] = q;
             });

@@ -34,14 +34,9 @@ public class FootprintTest
 
         var rng = new Rng(5);
         int n = 400_000, inside = 0;
-        double th = prof.PositionAngle, e = prof.Ellipticity;
         for (int k = 0; k < n; k++)
         {
-            double u = rng.NextDouble();
-            double r = prof.HalfLight * Math.Sqrt(u / (1 - u)); // inverse of R^2/(R^2+a^2)
-            double phi = 2 * Math.PI * rng.NextDouble();
-            double v = r * Math.Cos(phi), w = r * Math.Sin(phi) * (1 - e);
-            double x = prof.X0 + v * Math.Sin(th) + w * Math.Cos(th), y = prof.Y0 + v * Math.Cos(th) - w * Math.Sin(th);
+            var (x, y) = SyntheticField.SamplePlummer(rng, prof.X0, prof.Y0, prof.HalfLight, prof.Ellipticity, prof.PositionAngle);
             if (x >= -10 && x < 10 && y >= -10 && y < 10) inside++;
         }
         double mc = (double)inside / n;

@@ -131,6 +131,33 @@ public class MembershipFitterTest
     }
 
     [Fact]
+    public void Run_WithoutMetallicityTerm_FitsMdfAfterwardsAndReportsBoth()
+    {
+        var f = SyntheticField.Make(Small);
+        var r = MembershipFitter.Run(f.Inputs, SyntheticField.Options(Small) with { UseMetallicity = false });
+        Assert.Same(r.MdfWithoutMetallicityTerm, r.Mdf);
+        Assert.NotNull(r.MdfWithMetallicityTerm);
+        Assert.Null(r.ForegroundMdf); // the configured fit has no metallicity term
+        Assert.True(SyntheticField.Auc(r.PMember, f.IsMember) >= 0.97);
+        // the members' MDF is still found, if pulled towards the metal-rich foreground by the weaker separation
+        Assert.InRange(r.Mdf!.Mean, Small.MdfMean - 0.1, Small.MdfMean + 0.3);
+        Assert.InRange(r.MdfWithMetallicityTerm!.Mean, Small.MdfMean - 3 * r.MdfWithMetallicityTerm.MeanErr - 0.02, Small.MdfMean + 3 * r.MdfWithMetallicityTerm.MeanErr + 0.02);
+    }
+
+    [Fact]
+    public void Run_WithFiducialLocus_RecoversMembers()
+    {
+        var f = SyntheticField.Make(Small);
+        // the generator's own ridge, tabulated against absolute magnitude
+        var absMag = Enumerable.Range(0, 31).Select(k => -4.0 + 0.2 * k).ToArray();
+        var colour = absMag.Select(m => SyntheticField.RidgeColour(m + Small.DistanceModulus, Small.DistanceModulus)).ToArray();
+        var r = MembershipFitter.Run(f.Inputs, SyntheticField.Options(Small) with { Fiducial = new FiducialLocus(absMag, colour) });
+        Assert.True(SyntheticField.Auc(r.PMember, f.IsMember) >= 0.97);
+        Assert.True(Math.Abs(r.ExpectedMembers - f.MembersInField) <= 0.05 * f.MembersInField, $"N {r.ExpectedMembers:F1} vs {f.MembersInField}");
+        Assert.Equal(SyntheticField.RidgeColour(22.0, Small.DistanceModulus), r.RidgeColour[Array.FindIndex(r.RidgeMag, m => Math.Abs(m - 22.0) < 0.2)], 1);
+    }
+
+    [Fact]
     public void Run_MismatchedColumn_NamesIt()
     {
         var f = SyntheticField.Make(Small);

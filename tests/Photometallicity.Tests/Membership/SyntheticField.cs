@@ -68,11 +68,7 @@ internal sealed class SyntheticField
         }
         for (int k = 0; k < s.Members; k++)
         {
-            double u = rng.NextDouble();
-            double r = s.HalfLightArcmin * Math.Sqrt(u / (1 - u)); // inverse of the enclosed fraction R^2/(R^2+a^2) (Plummer 1911)
-            double phi = 2 * Math.PI * rng.NextDouble();
-            double v = r * Math.Cos(phi), uu = r * Math.Sin(phi) * (1 - s.Ellipticity);
-            double xi = v * Math.Sin(th) + uu * Math.Cos(th), eta = v * Math.Cos(th) - uu * Math.Sin(th);
+            var (xi, eta) = SamplePlummer(rng, 0, 0, s.HalfLightArcmin, s.Ellipticity, th);
             if (Math.Abs(xi) <= w && Math.Abs(eta) <= w) Add(xi, eta, true);
         }
         for (int k = 0; k < s.Foreground; k++) Add(w * (2 * rng.NextDouble() - 1), w * (2 * rng.NextDouble() - 1), false);
@@ -89,6 +85,20 @@ internal sealed class SyntheticField
             Parallax = s.Astrometry ? plx.ToArray() : null, ParallaxErr = s.Astrometry ? plxe.ToArray() : null,
         };
         return new SyntheticField { Inputs = inputs, IsMember = truth.ToArray(), Spec = s };
+    }
+
+    /// <summary>
+    /// A point drawn from an elliptical Plummer profile: major-axis radius from the inverse of the enclosed fraction
+    /// R^2 / (R^2 + a^2) (Plummer 1911), uniform angle, minor axis squeezed by 1 - e, major axis at position angle
+    /// <paramref name="paRad"/> east of north.
+    /// </summary>
+    public static (double Xi, double Eta) SamplePlummer(Rng rng, double x0, double y0, double a, double e, double paRad)
+    {
+        double u = rng.NextDouble();
+        double r = a * Math.Sqrt(u / (1 - u));
+        double phi = 2 * Math.PI * rng.NextDouble();
+        double v = r * Math.Cos(phi), q = r * Math.Sin(phi) * (1 - e);
+        return (x0 + v * Math.Sin(paRad) + q * Math.Cos(paRad), y0 + v * Math.Cos(paRad) - q * Math.Sin(paRad));
     }
 
     public static MembershipOptions Options(SyntheticFieldSpec s, double offsetArcmin = 0) => new()
