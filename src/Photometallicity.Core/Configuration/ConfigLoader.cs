@@ -282,12 +282,12 @@ public static class ConfigLoader
 
     private static MembershipConfig Membership(ConfigNode? n)
     {
-        if (n is null) return new MembershipConfig(true, 3.0, "blue");
+        if (n is null) return new MembershipConfig(true, 3.0, "red");
         n.RequireObject();
         var m = new MembershipConfig(
             n.Optional("use_metallicity")?.AsBool() ?? true,
             n.Optional("outer_radius_multiple")?.AsNumber(1.5, 50) ?? 3.0,
-            n.Optional("magnitude_band")?.AsString() ?? "blue");
+            n.Optional("magnitude_band")?.AsString() ?? "red");
         n.RejectUnknown();
         if (m.MagnitudeBand is not ("blue" or "red")) throw n.Error($"magnitude_band '{m.MagnitudeBand}' must be \"blue\" or \"red\"");
         return m;

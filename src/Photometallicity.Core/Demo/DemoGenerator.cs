@@ -150,14 +150,14 @@ public static class DemoGenerator
     {
         // An invented spectroscopic survey: bright member giants, chosen to spread over [Fe/H] (weights ~ 1/density),
         // plus a few bad standards (binaries, bad spectra: wrong [Fe/H]; foreground dwarfs mistaken for members).
-        var bright = Enumerable.Range(0, id.Length).Where(i => member[i] && blue[i] < 22.2).ToArray();
+        var bright = Enumerable.Range(0, id.Length).Where(i => member[i] && blue[i] < 22.6).ToArray();
         var picked = new List<int>();
         foreach (int i in bright)
         {
             double z = (fehTrue[i] + 1.65) / 0.38;
             double w = Math.Min(1.0, 0.12 * Math.Exp(0.5 * z * z));
             if (rng.NextDouble() < w) picked.Add(i);
-            if (picked.Count >= 150) break;
+            if (picked.Count >= 200) break;
         }
         var dwarfs = Enumerable.Range(0, id.Length).Where(i => !member[i] && blue[i] < 21.5 && colour[i] > 0.75 && colour[i] < 1.1).Take(3).ToList();
         var rows = new List<(string Id, double Ra, double Dec, double Feh, double Err, string Note)>();

@@ -37,13 +37,13 @@ public sealed record DemoTruth
     /// <summary>
     /// The invented index behaviour of red giants: X0 = f(C0, [Fe/H]). At fixed colour the index grows with [Fe/H],
     /// more strongly for cooler (redder) stars, and loses sensitivity towards the lowest [Fe/H]: the slope
-    /// 0.04 + 0.14 ([Fe/H] + 3.8) mag/dex falls to 0.04 at [Fe/H] = -3.8 (the demo field has no star below -3.6).
+    /// 0.08 + 0.12 ([Fe/H] + 3.8) mag/dex (at C0 = 1) falls from 0.34 at [Fe/H] = -1.65 to 0.10 at -3.6.
     /// Invented for the demonstration; not a published relation.
     /// </summary>
     public static double GiantIndex(double colour0, double feh)
     {
         double u = feh + 3.8;
-        double g = 0.04 * u + 0.07 * u * u;
+        double g = 0.08 * u + 0.06 * u * u;
         return -1.15 + 0.25 * (colour0 - 1.0) + (1.0 + 0.6 * (colour0 - 1.0)) * g;
     }
 

@@ -129,6 +129,9 @@ internal sealed class StarSolver
             var side = highEdge ? FehLimitSide.Lower : FehLimitSide.Upper;
             double lim = total > 0 ? Percentile(a, b - a, highEdge ? 0.16 : 0.84) : FehAt(highEdge ? p.J1 : p.J0);
             var status = above ? MetallicityStatus.IndexAboveRange : MetallicityStatus.IndexBelowRange;
+            // A limit star still keeps its likelihood inside the domain (rising to the edge it points beyond), so
+            // that the metallicity-distribution fit is not biased by dropping the stars nearest an edge.
+            if (store is not null && total > 0) (start, length) = Store(a, like, store);
             return new StarSummary(status, double.NaN, highEdge ? lim : double.NaN, highEdge ? double.NaN : lim, lim, side);
         }
         double med = Percentile(a, b - a, 0.5);

@@ -174,19 +174,24 @@ public static class PipelineRunner
         }
         var c = NarrowCompleteness.Measure(ip.Blue0, has, consider);
         if (!double.IsFinite(c.CompleteToMag)) return c;
-        double wAll = 0, wBeyond = 0, outside = 0, withColour = 0;
+        double wAll = 0, wBeyond = 0, outside = 0, withColour = 0, truncated = 0, limits = 0;
         for (int i = 0; i < n; i++)
         {
             double p = pMember[i];
             if (!double.IsFinite(p)) continue;
             if (ip.HasUsableColour(i)) withColour += p;
             if (feh.Status[i] == MetallicityStatus.ColourOutsideCalibration) outside += p;
+            if (feh.Status[i] == MetallicityStatus.PosteriorTruncated) truncated += p;
+            if (feh.Status[i] is MetallicityStatus.IndexAboveRange or MetallicityStatus.IndexBelowRange) limits += p;
             if (!double.IsFinite(feh.Feh[i])) continue;
             wAll += p;
             if (ip.Blue0[i] > c.CompleteToMag) wBeyond += p;
         }
         if (wAll > 0 && wBeyond / wAll > 0.1)
             warnings.Add($"{100 * wBeyond / wAll:F0}% of the members' [Fe/H] weight comes from stars fainter than blue0 = {c.CompleteToMag:F2}, where narrow-band detection is incomplete: the metallicity distribution may be biased metal-poor there");
+        double withFeh = wAll + limits;
+        if (withFeh > 0 && (truncated + limits) / withFeh > 0.2)
+            warnings.Add($"{100 * (truncated + limits) / withFeh:F0}% of the likely members with an index have [Fe/H] posteriors cut by the calibration's validity domain (truncated or limits): the metallicity distribution leans towards the domain's interior; standards covering the members' colours and [Fe/H] would remove this");
         if (withColour > 0 && outside / withColour > 0.05)
             warnings.Add($"{100 * outside / withColour:F0}% of the likely members lie outside the calibrated colour range");
         return c;
