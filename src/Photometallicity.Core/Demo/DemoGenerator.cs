@@ -72,7 +72,7 @@ public static class DemoGenerator
             colourTrue[i] = c0;
             indexTrue[i] = x0;
             double e = Math.Max(0.0, truth.MeanEbv + 0.01 * (xi / truth.FieldHalfWidthArcmin) + rng.NextGaussian(0, 0.003));
-            ebv[i] = Math.Round(e, 4);
+            ebv[i] = Math.Round(e + rng.NextGaussian(0, 0.005), 4); // the catalogue's E(B-V) is a measurement: 0.005 mag error, as the demo config states
             double red0 = blue0 - c0;
             double narrow0 = blue0 + x0 + truth.ColourCoefficient * c0;
             double bt = blue0 + coef[0] * e, rt = red0 + coef[1] * e;
