@@ -70,4 +70,21 @@ public static class GlobularClusterCatalogue
         string k = Key(name);
         return clusters.FirstOrDefault(c => Key(c.Name) == k || (c.Alias.Length > 0 && Key(c.Alias) == k));
     }
+
+    /// <summary>Relative location of the shipped reference table.</summary>
+    public const string ShippedRelativePath = "calibration/globular_clusters.csv";
+
+    /// <summary>
+    /// The shipped table: calibration/globular_clusters.csv beside the executable, or in the nearest folder above it
+    /// that has one (a build inside the source tree); null when there is none.
+    /// </summary>
+    public static string? DefaultPath()
+    {
+        for (var d = new DirectoryInfo(AppContext.BaseDirectory); d is not null; d = d.Parent)
+        {
+            string p = Path.Combine(d.FullName, "calibration", "globular_clusters.csv");
+            if (File.Exists(p)) return p;
+        }
+        return null;
+    }
 }

@@ -10,7 +10,7 @@ namespace Photometallicity.Configuration;
 /// <see cref="InputException"/>s naming the key or file. Paths are relative to the config file.
 /// The defaults are documented in README.md ("Config reference") and here beside each key.
 /// </summary>
-public static class ConfigLoader
+public static partial class ConfigLoader
 {
     private static readonly JsonDocumentOptions Options = new()
     {
@@ -56,7 +56,7 @@ public static class ConfigLoader
         var reddening = Reddening(root.Optional("reddening"));
         var cross = CrossMatch(root.Optional("crossmatch"));
         var index = Index(root.Optional("index"));
-        var standards = Standards(root.Required("standards"), dir, cross);
+        var (standards, clusters) = Standards(root.Required("standards"), dir, cross);
         var calibration = Calibration(root.Optional("calibration"), seed);
         var metallicity = Metallicity(root.Optional("metallicity"));
         var target = Target(root.Required("target"));
@@ -79,6 +79,7 @@ public static class ConfigLoader
             CrossMatch = cross,
             Index = index,
             Standards = standards,
+            ClusterStandards = clusters,
             Calibration = calibration,
             Metallicity = metallicity,
             Target = target,
@@ -205,12 +206,16 @@ public static class ConfigLoader
         return new IndexConfig(k, lo, hi);
     }
 
-    private static IReadOnlyList<StandardSetConfig> Standards(ConfigNode n, string dir, CrossMatchConfig cross)
+    private static (IReadOnlyList<StandardSetConfig>, IReadOnlyList<ClusterStandardConfig>) Standards(ConfigNode n, string dir, CrossMatchConfig cross)
     {
         var list = new List<StandardSetConfig>();
+        var clusters = new List<ClusterStandardConfig>();
         foreach (var s in n.Items())
         {
             s.RequireObject();
+            string kind = s.Optional("kind")?.AsString() ?? "stars"; // default: a list of individual stars
+            if (kind == "cluster") { clusters.Add(ClusterStandard(s, dir)); continue; }
+            if (kind != "stars") throw s.Required("kind").Error($"unknown kind of standard set '{kind}'; use \"stars\" (a list of individual stars) or \"cluster\" (a cluster field)");
             string path = ExistingFile(s.Required("path"), dir);
             list.Add(new StandardSetConfig(
                 path,
@@ -224,8 +229,11 @@ public static class ConfigLoader
                 s.Optional("name")?.AsString() ?? System.IO.Path.GetFileNameWithoutExtension(path)));
             s.RejectUnknown();
         }
-        if (list.Count == 0) throw n.Error("at least one standard set is needed to calibrate the index");
-        return list;
+        if (list.Count + clusters.Count == 0) throw n.Error("at least one standard set is needed to calibrate the index");
+        var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        foreach (var c in clusters)
+            if (!names.Add(c.Name)) throw new InputException($"config key '{c.Key}.name': cluster '{c.Name}' is listed twice among the standards", n.File);
+        return (list, clusters);
     }
 
     private static CalibrationConfig Calibration(ConfigNode? n, ulong seed)

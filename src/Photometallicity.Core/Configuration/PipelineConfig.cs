@@ -17,6 +17,9 @@ public sealed record PipelineConfig
     public required CrossMatchConfig CrossMatch { get; init; }
     public required IndexConfig Index { get; init; }
     public required IReadOnlyList<StandardSetConfig> Standards { get; init; }
+
+    /// <summary>The cluster fields among the standards ("kind": "cluster"), in config order.</summary>
+    public IReadOnlyList<ClusterStandardConfig> ClusterStandards { get; init; } = [];
     public required CalibrationConfig Calibration { get; init; }
     public required MetallicityConfig Metallicity { get; init; }
     public required TargetConfig Target { get; init; }
@@ -53,6 +56,27 @@ public sealed record IndexConfig(double ColourCoefficient, double? ColourMin, do
 
 public sealed record StandardSetConfig(string Path, string? IdColumn, string RaColumn, string DecColumn, string FehColumn,
     string FehErrColumn, string? LogGColumn, double MatchRadiusArcsec, string Name);
+
+/// <summary>
+/// A cluster field used as one block of standards: its own catalogue pair (same band columns as the main field),
+/// the cluster's centre and selection radius, the literature [Fe/H] its members share, its reddening, and the
+/// red-giant-branch selection settings. <see cref="Key"/> is the config path ("standards[1]") for messages.
+/// </summary>
+public sealed record ClusterStandardConfig(
+    string Key,
+    string Name,
+    CatalogueConfig Broadband,
+    CatalogueConfig Narrowband,
+    SkyPosition Centre,
+    double RadiusArcmin,
+    double Feh,
+    double FehErr,
+    ReddeningConfig Reddening,
+    int RidgeDegree,
+    double KeepSigma,
+    double? Blue0Bright,
+    double? Blue0Faint,
+    string Source);
 
 public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma);
 

@@ -13,23 +13,15 @@ public sealed class InputCatalogues
     public required Table Narrowband { get; init; }
     public required IReadOnlyList<Table> Standards { get; init; }
 
+    /// <summary>The catalogue pair of each cluster field among the standards (config.ClusterStandards order).</summary>
+    public IReadOnlyList<(Table Broadband, Table Narrowband)> ClusterFields { get; init; } = [];
+
     /// <summary>(path, SHA-256) for every input file, config included, in a fixed order.</summary>
     public required IReadOnlyList<(string Path, string Sha256)> Checksums { get; init; }
 
     public static InputCatalogues Load(PipelineConfig config)
     {
-        var broad = ReadCatalogue(config.Broadband, NumericColumns(config, CatalogueSide.Broadband));
-        var narrow = ReadCatalogue(config.Narrowband, NumericColumns(config, CatalogueSide.Narrowband));
-        foreach (var band in new[] { config.Blue, config.Red, config.Narrow })
-        {
-            var t = band.From == CatalogueSide.Broadband ? broad : narrow;
-            t.Require(band.MagColumn, $"bands.{band.Name}.mag");
-            t.Require(band.ErrColumn, $"bands.{band.Name}.err");
-        }
-        if (config.Reddening.Column is { } ec) broad.Require(ec, "reddening.column");
-        if (config.Reddening.ErrorColumn is { } eec) broad.Require(eec, "reddening.error_column");
-        if (config.Broadband.FlagColumn is { } fc) broad.Require(fc, "broadband.flag");
-
+        var (broad, narrow) = ReadPair(config, config.Broadband, config.Narrowband, config.Reddening, "");
         var standards = new List<Table>();
         for (int i = 0; i < config.Standards.Count; i++)
         {
@@ -50,11 +42,40 @@ public sealed class InputCatalogues
             standards.Add(t);
         }
 
+        var clusters = new List<(Table, Table)>();
+        foreach (var c in config.ClusterStandards) clusters.Add(ReadPair(config, c.Broadband, c.Narrowband, c.Reddening, c.Key + "."));
+
         var sums = new List<(string, string)> { (config.ConfigPath, Pipeline.Checksums.Sha256(config.ConfigPath)) };
         sums.Add((config.Broadband.Path, Pipeline.Checksums.Sha256(config.Broadband.Path)));
         sums.Add((config.Narrowband.Path, Pipeline.Checksums.Sha256(config.Narrowband.Path)));
         foreach (var s in config.Standards) sums.Add((s.Path, Pipeline.Checksums.Sha256(s.Path)));
-        return new InputCatalogues { Broadband = broad, Narrowband = narrow, Standards = standards, Checksums = sums };
+        foreach (var c in config.ClusterStandards)
+        {
+            sums.Add((c.Broadband.Path, Pipeline.Checksums.Sha256(c.Broadband.Path)));
+            sums.Add((c.Narrowband.Path, Pipeline.Checksums.Sha256(c.Narrowband.Path)));
+        }
+        return new InputCatalogues { Broadband = broad, Narrowband = narrow, Standards = standards, ClusterFields = clusters, Checksums = sums };
+    }
+
+    /// <summary>
+    /// Reads a broadband + narrow-band pair with the bands' columns (the main field's, or a cluster field's, which
+    /// uses the same band columns); <paramref name="keyPrefix"/> ("" or "standards[1].") names the config keys in messages.
+    /// </summary>
+    private static (Table Broad, Table Narrow) ReadPair(PipelineConfig config, CatalogueConfig broadCfg, CatalogueConfig narrowCfg,
+        ReddeningConfig reddening, string keyPrefix)
+    {
+        var broad = ReadCatalogue(broadCfg, NumericColumns(config, CatalogueSide.Broadband, reddening));
+        var narrow = ReadCatalogue(narrowCfg, NumericColumns(config, CatalogueSide.Narrowband, reddening));
+        foreach (var band in new[] { config.Blue, config.Red, config.Narrow })
+        {
+            var t = band.From == CatalogueSide.Broadband ? broad : narrow;
+            t.Require(band.MagColumn, $"bands.{band.Name}.mag");
+            t.Require(band.ErrColumn, $"bands.{band.Name}.err");
+        }
+        if (reddening.Column is { } ec) broad.Require(ec, keyPrefix + "reddening.column");
+        if (reddening.ErrorColumn is { } eec) broad.Require(eec, keyPrefix + "reddening.error_column");
+        if (broadCfg.FlagColumn is { } fc) broad.Require(fc, keyPrefix + "broadband.flag");
+        return (broad, narrow);
     }
 
     private static Table ReadCatalogue(CatalogueConfig c, HashSet<string> numeric)
@@ -71,15 +92,15 @@ public sealed class InputCatalogues
         return t;
     }
 
-    private static HashSet<string> NumericColumns(PipelineConfig config, CatalogueSide side)
+    private static HashSet<string> NumericColumns(PipelineConfig config, CatalogueSide side, ReddeningConfig reddening)
     {
         var set = new HashSet<string>();
         foreach (var b in new[] { config.Blue, config.Red, config.Narrow })
             if (b.From == side) { set.Add(b.MagColumn); set.Add(b.ErrColumn); }
         if (side == CatalogueSide.Broadband)
         {
-            if (config.Reddening.Column is { } e) set.Add(e);
-            if (config.Reddening.ErrorColumn is { } ee) set.Add(ee);
+            if (reddening.Column is { } e) set.Add(e);
+            if (reddening.ErrorColumn is { } ee) set.Add(ee);
         }
         return set;
     }

@@ -65,7 +65,7 @@ public static class PipelineRunner
         }
         else
         {
-            standards = StandardsStep.Build(config, inputs, bra, bdec, photometry.Index, log);
+            standards = StandardsStep.Build(config, inputs, bra, bdec, photometry, log);
             using (var p = progress?.For("calibration bootstrap"))
             {
                 calibration = CalibrationFitter.Run(standards.Standards, new CalibrationOptions
