@@ -232,7 +232,7 @@ public static partial class ConfigLoader
         if (list.Count + clusters.Count == 0) throw n.Error("at least one standard set is needed to calibrate the index");
         var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         foreach (var c in clusters)
-            if (!names.Add(c.Name)) throw new InputException($"config key '{c.Key}.name': cluster '{c.Name}' is listed twice among the standards", n.File);
+            if (!names.Add(c.Name.Replace(" ", "", StringComparison.Ordinal))) throw new InputException($"config key '{c.Key}.name': cluster '{c.Name}' is listed twice among the standards", n.File);
         return (list, clusters);
     }
 
