@@ -137,6 +137,7 @@ public static class StandardsStep
             log.LogInformation("cluster {Name}: {Rows} rows, {Matched} with a narrow-band partner, {Inside} within {R:F1} arcmin with colour; {Members} on the red-giant ridge (sigma {Sig:F3} mag), {Entered} with a usable index enter as one block at [Fe/H] = {Feh:F2} +/- {FehErr:F2}; not used: {Outside} outside the radius or without colour, {OffRidge} off the ridge, {NoIndex} members without a usable index ({Source})",
                 c.Name, s.Rows, s.Matched, s.InsideRadius, c.RadiusArcmin, s.Members, s.RidgeSigmaMag, s.Entered, c.Feh, c.FehErr,
                 s.Rows - s.InsideRadius, s.OffRidge, s.MembersWithoutIndex, c.Source);
+            if (s.Entered == 0) log.LogWarning("cluster {Name}: no member has a usable index; the cluster adds nothing to the calibration", c.Name);
             return block;
         }
         catch (Errors.MethodException e)

@@ -59,4 +59,14 @@ public class ClusterStandardsTest
         var ids = Enumerable.Range(0, table.RowCount).Select(idColumn.GetString).ToHashSet();
         Assert.All(inCluster, i => Assert.Contains(st.Id[i], ids));
     }
+
+    [Fact]
+    public void Run_ClusterRadiusHoldsTooFewStars_MethodExceptionNamesTheCluster()
+    {
+        using var dir = new TempDir();
+        var config = ConfigLoader.Load(InventedClusterField.WriteRun(dir.Path, radiusArcmin: 0.1));
+        var e = Assert.Throws<Errors.MethodException>(() => PipelineRunner.Run(config, NullLogger.Instance, null, new RunScope(PipelineStage.Calibration)));
+        Assert.StartsWith($"cluster '{InventedClusterField.Name}' (standards[1]): Only ", e.Message);
+        Assert.Equal(2, e.ExitCode);
+    }
 }

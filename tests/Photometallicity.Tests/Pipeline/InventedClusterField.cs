@@ -92,7 +92,7 @@ public static class InventedClusterField
         """);
 
     /// <summary>Writes the demo field, this cluster field and a config whose standards are the demo's stars plus the cluster.</summary>
-    public static string WriteRun(string dir, int bootstrap = 60)
+    public static string WriteRun(string dir, int bootstrap = 60, double radiusArcmin = 4.0)
     {
         var field = DemoGenerator.Generate(1500, 5);
         string config = DemoWriter.Write(field, dir, 5);
@@ -100,7 +100,7 @@ public static class InventedClusterField
         string text = File.ReadAllText(config);
         const string stars = "\"feh\": \"feh_spec\", \"feh_err\": \"feh_spec_err\" }";
         if (!text.Contains(stars, StringComparison.Ordinal)) throw new InvalidOperationException("demo config layout changed");
-        text = text.Replace(stars, stars + ",\n" + ConfigEntry(), StringComparison.Ordinal)
+        text = text.Replace(stars, stars + ",\n" + ConfigEntry(radiusArcmin), StringComparison.Ordinal)
             .Replace("\"bootstrap\": 300", $"\"bootstrap\": {bootstrap}", StringComparison.Ordinal);
         File.WriteAllText(config, text);
         return config;
