@@ -29,6 +29,10 @@ public sealed class InputCatalogues
         if (config.Reddening.Column is { } ec) broad.Require(ec, "reddening.column");
         if (config.Reddening.ErrorColumn is { } eec) broad.Require(eec, "reddening.error_column");
         if (config.Broadband.FlagColumn is { } fc) broad.Require(fc, "broadband.flag");
+        var mc = config.Membership;
+        foreach (var (col, key) in new[] { (mc.PmRaColumn, "pm_ra"), (mc.PmDecColumn, "pm_dec"), (mc.PmRaErrColumn, "pm_ra_err"), (mc.PmDecErrColumn, "pm_dec_err"),
+                     (mc.ParallaxColumn, "parallax"), (mc.ParallaxErrColumn, "parallax_err") })
+            if (col is not null) broad.Require(col, "membership." + key);
 
         var standards = new List<Table>();
         for (int i = 0; i < config.Standards.Count; i++)
@@ -78,6 +82,9 @@ public sealed class InputCatalogues
             if (b.From == side) { set.Add(b.MagColumn); set.Add(b.ErrColumn); }
         if (side == CatalogueSide.Broadband)
         {
+            var m = config.Membership;
+            foreach (var c in new[] { m.PmRaColumn, m.PmDecColumn, m.PmRaErrColumn, m.PmDecErrColumn, m.ParallaxColumn, m.ParallaxErrColumn })
+                if (c is not null) set.Add(c);
             if (config.Reddening.Column is { } e) set.Add(e);
             if (config.Reddening.ErrorColumn is { } ee) set.Add(ee);
         }

@@ -110,7 +110,7 @@ public static class PipelineRunner
         }
 
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
-        var membership = MembershipStep.Run(config, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
+        var membership = MembershipStep.Run(config, inputs, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
         warnings.AddRange(membership.Warnings);
         log.LogInformation("membership: {Expected:F1} expected members; MDF mean {Mean:F3} +/- {MeanErr:F3}, sigma {Sigma:F3} +/- {SigmaErr:F3} dex",
             membership.ExpectedMembers, membership.Mdf?.Mean ?? double.NaN, membership.Mdf?.MeanErr ?? double.NaN,
