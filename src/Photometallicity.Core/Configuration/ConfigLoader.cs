@@ -237,7 +237,10 @@ public static class ConfigLoader
             n.Optional("seed")?.AsSeed() ?? seed,                     // default: the master seed
             n.Optional("degree")?.AsInt(1, 5),                        // default: chosen by cross-validation
             n.Optional("max_degree")?.AsInt(1, 5) ?? 3,
-            n.Optional("clip_sigma")?.AsNumber(2, 10) ?? 3.5);        // outlier threshold in sigma_eff; common practice
+            n.Optional("clip_sigma")?.AsNumber(2, 10) ?? 3.5)         // outlier threshold in sigma_eff; common practice
+        {
+            GiantMaxLogG = n.Optional("giant_max_logg")?.AsNumber(0, 6) ?? 3.5, // giants/dwarfs boundary; common practice
+        };
         n.RejectUnknown();
         return c;
     }

@@ -54,7 +54,11 @@ public sealed record IndexConfig(double ColourCoefficient, double? ColourMin, do
 public sealed record StandardSetConfig(string Path, string? IdColumn, string RaColumn, string DecColumn, string FehColumn,
     string FehErrColumn, string? LogGColumn, double MatchRadiusArcsec, string Name);
 
-public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma);
+/// <summary>Calibration settings; <see cref="GiantMaxLogG"/> separates giants from dwarfs when the standards carry log g.</summary>
+public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma)
+{
+    public double GiantMaxLogG { get; init; } = 3.5;
+}
 
 public sealed record MetallicityConfig(double GridMin, double GridMax, double GridStep, double? PriorMean, double? PriorSigma);
 
