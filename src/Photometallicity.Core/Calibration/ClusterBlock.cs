@@ -73,7 +73,8 @@ public sealed class ClusterBlock
 
     /// <summary>
     /// The standards followed by each block's members; block k gets group id (existing group count + k) and its
-    /// cluster's name. log g is NaN for cluster members when the standards carry it.
+    /// cluster's name. log g is NaN (unknown) for cluster members when the standards carry it: members are red giants
+    /// by selection, and a standard of unknown log g stays in the giant calibration and out of the dwarf one.
     /// </summary>
     public static CalibrationStandards Append(CalibrationStandards standards, IReadOnlyList<ClusterBlock> blocks)
     {

@@ -122,11 +122,12 @@ internal sealed class EffectiveVarianceFit
             string? err = FitActiveSet(warm: iter > 1);
             if (err is not null) return err;
             double s2 = SigmaInt * SigmaInt;
+            double scale = RobustScale(s2);
             bool changed = false;
             for (int i = 0; i < n; i++)
             {
                 if (_w[i] <= 0) continue;
-                double z = _resid[i] / Math.Sqrt(_baseVar[i] + s2);
+                double z = _resid[i] / Math.Sqrt(_baseVar[i] + s2) / scale;
                 bool keep = Math.Abs(z) <= _clip;
                 _candidate[i] = keep;
                 if (keep != _active[i]) changed = true;
@@ -137,6 +138,27 @@ internal sealed class EffectiveVarianceFit
         ClipIterations = MaxClipIterations + 1; // the set oscillates; the last fit stands (the stage warns)
         return null;
     }
+
+    /// <summary>
+    /// The spread of the kept standards' normalised residuals by the median absolute deviation (1.4826 MAD, a
+    /// consistent estimator of a Gaussian sigma; Hampel 1974, JASA 69, 383), capped at 1. Bad standards inflate the
+    /// fitted intrinsic scatter, which shrinks everyone's normalised residual and hides the outliers; dividing by
+    /// this robust spread undoes that, and changes nothing when the residuals are Gaussian (spread near 1).
+    /// </summary>
+    private double RobustScale(double s2)
+    {
+        int n = _d.N, k = 0;
+        _absZ = _absZ.Length == n ? _absZ : new double[n];
+        for (int i = 0; i < n; i++)
+            if (_active[i]) _absZ[k++] = Math.Abs(_resid[i] / Math.Sqrt(_baseVar[i] + s2));
+        if (k < 10) return 1.0;
+        var span = _absZ.AsSpan(0, k);
+        span.Sort();
+        double med = k % 2 == 1 ? span[k / 2] : 0.5 * (span[k / 2 - 1] + span[k / 2]);
+        return Math.Clamp(1.4826 * med, 0.5, 1.0);
+    }
+
+    private double[] _absZ = [];
 
     /// <summary>Normalised residual of candidate i at the last fit.</summary>
     public double Z(int i) => _resid[i] / Math.Sqrt(_baseVar[i] + SigmaInt * SigmaInt);

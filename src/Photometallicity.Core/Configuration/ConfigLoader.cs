@@ -60,7 +60,7 @@ public static partial class ConfigLoader
         var calibration = Calibration(root.Optional("calibration"), seed);
         var metallicity = Metallicity(root.Optional("metallicity"));
         var target = Target(root.Required("target"));
-        var membership = Membership(root.Optional("membership"));
+        var membership = Membership(root.Optional("membership"), dir);
         var forecast = Forecast(root.Optional("forecast"));
         var output = Output(root.Optional("output"), dir, outputOverride);
         root.RejectUnknown();
@@ -245,7 +245,10 @@ public static partial class ConfigLoader
             n.Optional("seed")?.AsSeed() ?? seed,                     // default: the master seed
             n.Optional("degree")?.AsInt(1, 5),                        // default: chosen by cross-validation
             n.Optional("max_degree")?.AsInt(1, 5) ?? 3,
-            n.Optional("clip_sigma")?.AsNumber(2, 10) ?? 3.5);        // outlier threshold in sigma_eff; common practice
+            n.Optional("clip_sigma")?.AsNumber(2, 10) ?? 3.5)         // outlier threshold in sigma_eff; common practice
+        {
+            GiantMaxLogG = n.Optional("giant_max_logg")?.AsNumber(0, 6) ?? 3.5, // giants/dwarfs boundary; common practice
+        };
         n.RejectUnknown();
         return c;
     }
@@ -288,16 +291,30 @@ public static partial class ConfigLoader
         return s is "plummer" or "exponential" ? s : throw n.Error($"unknown profile '{s}'; use plummer or exponential");
     }
 
-    private static MembershipConfig Membership(ConfigNode? n)
+    private static MembershipConfig Membership(ConfigNode? n, string dir)
     {
         if (n is null) return new MembershipConfig(true, 3.0, "red");
         n.RequireObject();
         var m = new MembershipConfig(
             n.Optional("use_metallicity")?.AsBool() ?? true,
             n.Optional("outer_radius_multiple")?.AsNumber(1.5, 50) ?? 3.0,
-            n.Optional("magnitude_band")?.AsString() ?? "red");
+            n.Optional("magnitude_band")?.AsString() ?? "red")
+        {
+            PmRaColumn = n.Optional("pm_ra")?.AsString(),
+            PmDecColumn = n.Optional("pm_dec")?.AsString(),
+            PmRaErrColumn = n.Optional("pm_ra_err")?.AsString(),
+            PmDecErrColumn = n.Optional("pm_dec_err")?.AsString(),
+            ParallaxColumn = n.Optional("parallax")?.AsString(),
+            ParallaxErrColumn = n.Optional("parallax_err")?.AsString(),
+            FiducialPath = n.Optional("fiducial") is { } fn ? ExistingFile(fn, dir) : null,
+        };
         n.RejectUnknown();
         if (m.MagnitudeBand is not ("blue" or "red")) throw n.Error($"magnitude_band '{m.MagnitudeBand}' must be \"blue\" or \"red\"");
+        string?[] pm = [m.PmRaColumn, m.PmDecColumn, m.PmRaErrColumn, m.PmDecErrColumn];
+        if (pm.Any(c => c is not null) && pm.Any(c => c is null))
+            throw n.Error("proper motions need all four of pm_ra, pm_dec, pm_ra_err, pm_dec_err (columns of the broadband catalogue, mas/yr)");
+        if ((m.ParallaxColumn is null) != (m.ParallaxErrColumn is null))
+            throw n.Error("a parallax needs both parallax and parallax_err (columns of the broadband catalogue, mas)");
         return m;
     }
 

@@ -78,13 +78,29 @@ public sealed record ClusterStandardConfig(
     double? Blue0Faint,
     string Source);
 
-public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma);
+/// <summary>Calibration settings; <see cref="GiantMaxLogG"/> separates giants from dwarfs when the standards carry log g.</summary>
+public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma)
+{
+    public double GiantMaxLogG { get; init; } = 3.5;
+}
 
 public sealed record MetallicityConfig(double GridMin, double GridMax, double GridStep, double? PriorMean, double? PriorSigma);
 
 public sealed record TargetConfig(SkyPosition Centre, double DistanceModulus, double? HalfLightArcmin, string Profile);
 
-public sealed record MembershipConfig(bool UseMetallicity, double OuterRadiusMultiple, string MagnitudeBand);
+/// <summary>Membership settings; the proper-motion and parallax columns (broadband catalogue) are optional, in pairs with their errors.</summary>
+public sealed record MembershipConfig(bool UseMetallicity, double OuterRadiusMultiple, string MagnitudeBand)
+{
+    public string? PmRaColumn { get; init; }
+    public string? PmDecColumn { get; init; }
+    public string? PmRaErrColumn { get; init; }
+    public string? PmDecErrColumn { get; init; }
+    public string? ParallaxColumn { get; init; }
+    public string? ParallaxErrColumn { get; init; }
+
+    /// <summary>Optional fiducial red-giant locus: a table of absolute magnitude and dereddened colour.</summary>
+    public string? FiducialPath { get; init; }
+}
 
 public sealed record ForecastConfig(double PrecisionDex, IReadOnlyList<double> Colours, double FehDex);
 

@@ -21,7 +21,12 @@ public sealed class InputCatalogues
 
     public static InputCatalogues Load(PipelineConfig config)
     {
-        var (broad, narrow) = ReadPair(config, config.Broadband, config.Narrowband, config.Reddening, "");
+        var (broad, narrow) = ReadPair(config, config.Broadband, config.Narrowband, config.Reddening, "", mainField: true);
+        var mc = config.Membership;
+        foreach (var (col, key) in new[] { (mc.PmRaColumn, "pm_ra"), (mc.PmDecColumn, "pm_dec"), (mc.PmRaErrColumn, "pm_ra_err"), (mc.PmDecErrColumn, "pm_dec_err"),
+                     (mc.ParallaxColumn, "parallax"), (mc.ParallaxErrColumn, "parallax_err") })
+            if (col is not null) broad.Require(col, "membership." + key);
+
         var standards = new List<Table>();
         for (int i = 0; i < config.Standards.Count; i++)
         {
@@ -43,7 +48,7 @@ public sealed class InputCatalogues
         }
 
         var clusters = new List<(Table, Table)>();
-        foreach (var c in config.ClusterStandards) clusters.Add(ReadPair(config, c.Broadband, c.Narrowband, c.Reddening, c.Key + "."));
+        foreach (var c in config.ClusterStandards) clusters.Add(ReadPair(config, c.Broadband, c.Narrowband, c.Reddening, c.Key + ".", mainField: false));
 
         var sums = new List<(string, string)> { (config.ConfigPath, Pipeline.Checksums.Sha256(config.ConfigPath)) };
         sums.Add((config.Broadband.Path, Pipeline.Checksums.Sha256(config.Broadband.Path)));
@@ -59,13 +64,14 @@ public sealed class InputCatalogues
 
     /// <summary>
     /// Reads a broadband + narrow-band pair with the bands' columns (the main field's, or a cluster field's, which
-    /// uses the same band columns); <paramref name="keyPrefix"/> ("" or "standards[1].") names the config keys in messages.
+    /// uses the same band columns); <paramref name="keyPrefix"/> ("" or "standards[1].") names the config keys in messages;
+    /// the membership's proper-motion and parallax columns are read as numbers in the main field only.
     /// </summary>
     private static (Table Broad, Table Narrow) ReadPair(PipelineConfig config, CatalogueConfig broadCfg, CatalogueConfig narrowCfg,
-        ReddeningConfig reddening, string keyPrefix)
+        ReddeningConfig reddening, string keyPrefix, bool mainField)
     {
-        var broad = ReadCatalogue(broadCfg, NumericColumns(config, CatalogueSide.Broadband, reddening));
-        var narrow = ReadCatalogue(narrowCfg, NumericColumns(config, CatalogueSide.Narrowband, reddening));
+        var broad = ReadCatalogue(broadCfg, NumericColumns(config, CatalogueSide.Broadband, reddening, mainField));
+        var narrow = ReadCatalogue(narrowCfg, NumericColumns(config, CatalogueSide.Narrowband, reddening, mainField));
         foreach (var band in new[] { config.Blue, config.Red, config.Narrow })
         {
             var t = band.From == CatalogueSide.Broadband ? broad : narrow;
@@ -92,13 +98,19 @@ public sealed class InputCatalogues
         return t;
     }
 
-    private static HashSet<string> NumericColumns(PipelineConfig config, CatalogueSide side, ReddeningConfig reddening)
+    private static HashSet<string> NumericColumns(PipelineConfig config, CatalogueSide side, ReddeningConfig reddening, bool mainField)
     {
         var set = new HashSet<string>();
         foreach (var b in new[] { config.Blue, config.Red, config.Narrow })
             if (b.From == side) { set.Add(b.MagColumn); set.Add(b.ErrColumn); }
         if (side == CatalogueSide.Broadband)
         {
+            if (mainField)
+            {
+                var m = config.Membership;
+                foreach (var c in new[] { m.PmRaColumn, m.PmDecColumn, m.PmRaErrColumn, m.PmDecErrColumn, m.ParallaxColumn, m.ParallaxErrColumn })
+                    if (c is not null) set.Add(c);
+            }
             if (reddening.Column is { } e) set.Add(e);
             if (reddening.ErrorColumn is { } ee) set.Add(ee);
         }

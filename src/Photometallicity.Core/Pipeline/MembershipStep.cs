@@ -9,9 +9,11 @@ namespace Photometallicity.Pipeline;
 /// <summary>Feeds the membership mixture with the run's positions, CMD and [Fe/H] likelihoods.</summary>
 public static class MembershipStep
 {
-    public static MembershipResult Run(PipelineConfig config, double[] ra, double[] dec, PhotometryProducts phot, MetallicityResult? feh,
+    public static MembershipResult Run(PipelineConfig config, InputCatalogues catalogues, double[] ra, double[] dec, PhotometryProducts phot, MetallicityResult? feh,
         double[] magErr, ILogger log)
     {
+        var mc = config.Membership;
+        var inputs0 = catalogues.Broadband;
         var ip = phot.Index;
         int n = ra.Length;
         double[] mag = config.Membership.MagnitudeBand == "red" ? ip.Red0 : ip.Blue0;
@@ -32,6 +34,12 @@ public static class MembershipStep
             VarMag = varMag,
             Usable = usable,
             Feh = feh?.Likelihoods,
+            PmRa = Column(inputs0, mc.PmRaColumn, "membership.pm_ra"),
+            PmDec = Column(inputs0, mc.PmDecColumn, "membership.pm_dec"),
+            PmRaErr = Column(inputs0, mc.PmRaErrColumn, "membership.pm_ra_err"),
+            PmDecErr = Column(inputs0, mc.PmDecErrColumn, "membership.pm_dec_err"),
+            Parallax = Column(inputs0, mc.ParallaxColumn, "membership.parallax"),
+            ParallaxErr = Column(inputs0, mc.ParallaxErrColumn, "membership.parallax_err"),
         };
         var options = new MembershipOptions
         {
@@ -42,7 +50,19 @@ public static class MembershipStep
             UseMetallicity = config.Membership.UseMetallicity && feh is not null,
             OuterRadiusMultiple = config.Membership.OuterRadiusMultiple,
             Seed = Seeds.Derive(config.Seed, "membership"),
+            Fiducial = mc.FiducialPath is { } fp ? Fiducial(fp) : null,
         };
         return MembershipFitter.Run(inputs, options, log);
+    }
+
+    private static double[]? Column(Catalogues.Table t, string? name, string key) => name is null ? null : t.RequireDoubles(name, key);
+
+    /// <summary>A fiducial locus table: columns absolute_mag (mag, the CMD's magnitude band) and colour0 (mag), sorted by magnitude.</summary>
+    private static FiducialLocus Fiducial(string path)
+    {
+        var t = Catalogues.CatalogueIO.Read(path, new Catalogues.ReadOptions { NumericColumns = new HashSet<string> { "absolute_mag", "colour0" } });
+        double[] m = t.RequireDoubles("absolute_mag", "membership.fiducial"), c = t.RequireDoubles("colour0", "membership.fiducial");
+        var order = Enumerable.Range(0, m.Length).Where(i => double.IsFinite(m[i]) && double.IsFinite(c[i])).OrderBy(i => m[i]).ToArray();
+        return new FiducialLocus(order.Select(i => m[i]).ToArray(), order.Select(i => c[i]).ToArray());
     }
 }

@@ -22,6 +22,9 @@ public sealed record PipelineResult
     public StandardsProducts? Standards { get; init; }
     public CalibrationResult? Calibration { get; init; }
     public MetallicityResult? Metallicity { get; init; }
+
+    /// <summary>The dwarf branch, when the standards carry log g and enough of them are dwarfs.</summary>
+    public DwarfProducts? Dwarf { get; init; }
     public MembershipResult? Membership { get; init; }
     public NarrowCompleteness? Completeness { get; init; }
     public ForecastProducts? Forecast { get; init; }

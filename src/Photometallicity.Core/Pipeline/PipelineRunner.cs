@@ -76,6 +76,7 @@ public static class PipelineRunner
                     MaxDegree = config.Calibration.MaxDegree,
                     ClipSigma = config.Calibration.ClipSigma,
                     Filters = photometry.Filters,
+                    MaxLogG = standards.Standards.LogG is null ? null : config.Calibration.GiantMaxLogG,
                 }, log, p);
             }
             cm = calibration.Model;
@@ -87,30 +88,33 @@ public static class PipelineRunner
             return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
                 Standards = standards, Calibration = calibration, Warnings = warnings, Timings = timings };
 
+        var metallicityOptions = new MetallicityOptions
+        {
+            GridMin = config.Metallicity.GridMin,
+            GridMax = config.Metallicity.GridMax,
+            GridStep = config.Metallicity.GridStep,
+            PriorMean = config.Metallicity.PriorMean,
+            PriorSigma = config.Metallicity.PriorSigma,
+        };
         MetallicityResult metallicity;
         using (var p = progress?.For("metallicity"))
         {
-            metallicity = MetallicityAssigner.Run(photometry.Index, cm, new MetallicityOptions
-            {
-                GridMin = config.Metallicity.GridMin,
-                GridMax = config.Metallicity.GridMax,
-                GridStep = config.Metallicity.GridStep,
-                PriorMean = config.Metallicity.PriorMean,
-                PriorSigma = config.Metallicity.PriorSigma,
-            }, log, p);
+            metallicity = MetallicityAssigner.Run(photometry.Index, cm, metallicityOptions, log, p);
         }
         log.LogInformation("metallicity: {Counts}", string.Join(", ", metallicity.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
         Lap("metallicity");
+        var dwarf = standards is not null ? DwarfBranch.Run(config, standards, photometry, metallicityOptions, log, progress) : null;
+        if (dwarf is not null) Lap("dwarf branch");
         if (scope.StopAfter == PipelineStage.Metallicity)
         {
             var noMembers = Enumerable.Repeat(double.NaN, inputs.Broadband.RowCount).ToArray();
             return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
-                Standards = standards, Calibration = calibration, Metallicity = metallicity, Warnings = warnings, Timings = timings,
-                Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers) };
+                Standards = standards, Calibration = calibration, Metallicity = metallicity, Dwarf = dwarf, Warnings = warnings, Timings = timings,
+                Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers, dwarf?.Metallicity) };
         }
 
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
-        var membership = MembershipStep.Run(config, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
+        var membership = MembershipStep.Run(config, inputs, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
         warnings.AddRange(membership.Warnings);
         log.LogInformation("membership: {Expected:F1} expected members; MDF mean {Mean:F3} +/- {MeanErr:F3}, sigma {Sigma:F3} +/- {SigmaErr:F3} dex",
             membership.ExpectedMembers, membership.Mdf?.Mean ?? double.NaN, membership.Mdf?.MeanErr ?? double.NaN,
@@ -130,7 +134,7 @@ public static class PipelineRunner
         else warnings.Add("no forecast: a photometric error model could not be fitted for every band");
 
         var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
-        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember);
+        var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember, dwarf?.Metallicity);
         foreach (var w in warnings) log.LogWarning("{Warning}", w);
         return new PipelineResult
         {
@@ -143,6 +147,7 @@ public static class PipelineRunner
             Standards = standards,
             Calibration = calibration,
             Metallicity = metallicity,
+            Dwarf = dwarf,
             Membership = membership,
             Completeness = completeness,
             Forecast = forecast,

@@ -32,6 +32,12 @@ public static class RunOutputWriter
         string cal = Path.Combine(directory, "calibration.json");
         CalibrationJson.Write(r.Model, r.Calibration, cal);
         written.Add(cal);
+        if (r.Dwarf is { } dwarf)
+        {
+            string dc = Path.Combine(directory, "calibration_dwarf.json");
+            CalibrationJson.Write(dwarf.Calibration.Model, dwarf.Calibration, dc);
+            written.Add(dc);
+        }
         if (r.Standards is { } standards && r.Calibration is { } fit)
         {
             string res = Path.Combine(directory, "calibration_residuals.csv");

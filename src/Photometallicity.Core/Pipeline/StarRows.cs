@@ -26,5 +26,10 @@ public sealed class StarRows
     public required double[] PMember { get; init; }
     public required string[] Status { get; init; }
 
+    /// <summary>[Fe/H] under the dwarf calibration (median, 16th, 84th percentile), when there is one.</summary>
+    public double[]? FehDwarf { get; init; }
+    public double[]? FehDwarfLo { get; init; }
+    public double[]? FehDwarfHi { get; init; }
+
     public int Count => Id.Length;
 }

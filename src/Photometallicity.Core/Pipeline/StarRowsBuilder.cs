@@ -8,7 +8,7 @@ namespace Photometallicity.Pipeline;
 public static class StarRowsBuilder
 {
     public static StarRows Build(PipelineConfig config, InputCatalogues inputs, CrossMatchResult match, PhotometryProducts phot,
-        MetallicityResult feh, double[] pMember)
+        MetallicityResult feh, double[] pMember, MetallicityResult? dwarf = null)
     {
         var b = inputs.Broadband;
         int n = b.RowCount;
@@ -52,6 +52,9 @@ public static class StarRowsBuilder
             FehHi = feh.FehHi,
             PMember = pMember,
             Status = status,
+            FehDwarf = dwarf?.Feh,
+            FehDwarfLo = dwarf?.FehLo,
+            FehDwarfHi = dwarf?.FehHi,
         };
     }
 }

@@ -25,6 +25,12 @@ public static class StarsTable
         t.Add(new Column<double>("feh", r.Feh, unit: "dex", description: "[Fe/H] posterior median"));
         t.Add(new Column<double>("feh_lo", r.FehLo, unit: "dex", description: "16th percentile of the [Fe/H] posterior (or an upper limit, see status)"));
         t.Add(new Column<double>("feh_hi", r.FehHi, unit: "dex", description: "84th percentile of the [Fe/H] posterior (or a lower limit, see status)"));
+        if (r.FehDwarf is { } fd && r.FehDwarfLo is { } fdl && r.FehDwarfHi is { } fdh)
+        {
+            t.Add(new Column<double>("feh_dwarf", fd, unit: "dex", description: "[Fe/H] posterior median under the dwarf calibration"));
+            t.Add(new Column<double>("feh_dwarf_lo", fdl, unit: "dex", description: "16th percentile under the dwarf calibration"));
+            t.Add(new Column<double>("feh_dwarf_hi", fdh, unit: "dex", description: "84th percentile under the dwarf calibration"));
+        }
         t.Add(new Column<double>("p_member", r.PMember, description: "probability of belonging to the target"));
         t.Add(new Column<string>("status", r.Status, description: "status code (see README)"));
         return t;

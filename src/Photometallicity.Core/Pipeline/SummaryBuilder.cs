@@ -32,6 +32,15 @@ public static class SummaryBuilder
             ["photometry"] = Photometry(r),
             ["calibration"] = Calibration(r, Rel),
         };
+        if (r.Dwarf is { } dw)
+            summary["calibration_dwarf"] = new JsonObject
+            {
+                ["standards"] = dw.Standards,
+                ["standards_used"] = dw.Calibration.Model.StandardsUsed,
+                ["degree"] = dw.Calibration.Model.Basis.Degree,
+                ["rms_dex"] = N(dw.Calibration.Model.RmsDex),
+                ["sigma_int_mag"] = N(dw.Calibration.Model.SigmaInt),
+            };
         if (r.Metallicity is { } met)
             summary["metallicity"] = new JsonObject(met.Counts.OrderBy(kv => (int)kv.Key).Select(kv => new KeyValuePair<string, JsonNode?>(kv.Key.ToString(), kv.Value)));
         if (r.Membership is { } mem)

@@ -22,7 +22,7 @@ public static class SummaryPageBuilder
             .Select(f => new OutputFileEntry(f!, Describe(f!))).ToList();
         var cm = s["crossmatch"]!.AsObject();
         var cal = s["calibration"]!.AsObject();
-        var mem = s["members"]!.AsObject();
+        var mem = s["members"]?.AsObject() ?? new JsonObject();
         var mdf = s["mdf"] as JsonObject;
         var off = cm["offset_arcsec"]!.AsArray();
         var offErr = cm["offset_err_arcsec"]!.AsArray();
@@ -34,7 +34,8 @@ public static class SummaryPageBuilder
             new("Astrometric offset, delta Dec (narrow - broad)", N(off[1]), N(offErr[1]), "arcsec"),
             new("False-match rate, expected", 100 * N(cm["false_match_rate_expected"]), null, "%", "F2"),
             new("False-match rate, measured (shifted catalogue)", 100 * N(cm["false_match_rate_measured"]), null, "%", "F2"),
-            new("Calibration standards used / rejected", N(cal["standards_used"]), N(cal["standards_rejected"]), "", "F0"),
+            new("Calibration standards used", N(cal["standards_used"]), null, "", "F0"),
+            new("Calibration standards rejected as outliers", N(cal["standards_rejected"]), null, "", "F0"),
             new("Calibration residual rms", N(cal["rms_dex"]), null, "dex"),
             new("Calibration intrinsic scatter", N(cal["sigma_int_mag"]), null, "mag"),
             new("Calibration degree", N(cal["degree"]), null, "", "F0"),

@@ -96,3 +96,18 @@ public class ConfigLoaderTest
         Assert.StartsWith($"{p}: not valid JSON:", e.Message);
     }
 }
+
+public class ConfigLoaderMembershipTest
+{
+    [Fact]
+    public void Load_IncompleteProperMotionColumns_AreAnError()
+    {
+        using var dir = new TempDir();
+        foreach (var f in new[] { "broad.csv", "narrow.csv", "standards.csv" }) File.WriteAllText(dir.File(f), "ra,dec\n1,2\n");
+        DemoFilters.WriteTo(dir.Path);
+        string p = dir.File("config.json");
+        File.WriteAllText(p, DemoWriter.ConfigText(new DemoTruth(), 5).Replace("\"use_metallicity\": true", "\"use_metallicity\": true, \"pm_ra\": \"pmra\""));
+        var e = Assert.Throws<InputException>(() => ConfigLoader.Load(p));
+        Assert.Equal($"{p}: config key 'membership': proper motions need all four of pm_ra, pm_dec, pm_ra_err, pm_dec_err (columns of the broadband catalogue, mas/yr)", e.Message);
+    }
+}

@@ -1,0 +1,65 @@
+using Microsoft.Extensions.Logging;
+using Photometallicity.Calibration;
+using Photometallicity.Configuration;
+using Photometallicity.Metallicity;
+
+namespace Photometallicity.Pipeline;
+
+/// <summary>The dwarf branch of a run: a calibration fitted to the high-gravity standards and every star's [Fe/H] under it.</summary>
+public sealed record DwarfProducts(CalibrationResult Calibration, MetallicityResult Metallicity, int Standards);
+
+/// <summary>
+/// Dwarfs and giants. When the standards carry log g, the main (giant) calibration uses only standards with
+/// log g at or below <see cref="CalibrationConfig.GiantMaxLogG"/> (the others are rejected from it with the reason), and,
+/// when at least <see cref="MinStandards"/> standards lie above it, a second calibration is fitted to those dwarfs, so that
+/// every star also gets an [Fe/H] as if it were a foreground dwarf (columns feh_dwarf, feh_dwarf_lo, feh_dwarf_hi).
+/// The boundary log g = 3.5 between giants and dwarfs is common practice, not a published value.
+/// </summary>
+public static class DwarfBranch
+{
+    public const int MinStandards = 8;
+
+    public static DwarfProducts? Run(PipelineConfig config, StandardsProducts standards, PhotometryProducts photometry, MetallicityOptions metallicityOptions,
+        ILogger log, ProgressReporter? progress)
+    {
+        var s = standards.Standards;
+        if (s.LogG is not { } logg) return null;
+        double limit = config.Calibration.GiantMaxLogG;
+        var rows = Enumerable.Range(0, s.Count).Where(i => double.IsFinite(logg[i]) && logg[i] > limit).ToArray();
+        if (rows.Length < MinStandards)
+        {
+            log.LogInformation("no dwarf calibration: {N} standards with log g above {Limit} ({Min} needed)", rows.Length, limit, MinStandards);
+            return null;
+        }
+        var dwarfs = new CalibrationStandards
+        {
+            Id = rows.Select(i => s.Id[i]).ToArray(),
+            Colour0 = rows.Select(i => s.Colour0[i]).ToArray(),
+            Index0 = rows.Select(i => s.Index0[i]).ToArray(),
+            VarColour = rows.Select(i => s.VarColour[i]).ToArray(),
+            VarIndex = rows.Select(i => s.VarIndex[i]).ToArray(),
+            CovIndexColour = rows.Select(i => s.CovIndexColour[i]).ToArray(),
+            Feh = rows.Select(i => s.Feh[i]).ToArray(),
+            FehErr = rows.Select(i => s.FehErr[i]).ToArray(),
+            LogG = rows.Select(i => logg[i]).ToArray(),
+            Group = rows.Select(i => s.Group[i]).ToArray(),
+            GroupName = s.GroupName,
+        };
+        CalibrationResult fit;
+        using (var p = progress?.For("dwarf calibration bootstrap"))
+        {
+            fit = CalibrationFitter.Run(dwarfs, new CalibrationOptions
+            {
+                Bootstrap = config.Calibration.Bootstrap,
+                Seed = Numerics.Seeds.Derive(config.Calibration.Seed, "dwarf-branch"),
+                Degree = config.Calibration.Degree,
+                MaxDegree = config.Calibration.MaxDegree,
+                ClipSigma = config.Calibration.ClipSigma,
+                Filters = photometry.Filters,
+            }, log, p);
+        }
+        var feh = MetallicityAssigner.Run(photometry.Index, fit.Model, metallicityOptions, log);
+        log.LogInformation("dwarf calibration: {Used} standards used, degree {Degree}, rms {Rms:F3} dex", fit.Model.StandardsUsed, fit.Model.Basis.Degree, fit.Model.RmsDex);
+        return new DwarfProducts(fit, feh, rows.Length);
+    }
+}
