@@ -34,17 +34,17 @@ public sealed class CandidatePairs
         var chunkChord = new double[chunks][];
         Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
-            var idx = new List<int>(hi - lo);
-            var d2 = new List<double>(hi - lo);
+            var found = new PairBuffer(2 * (hi - lo));
+            double[] x = left.X, y = left.Y, z = left.Z;
             for (int k = lo; k < hi; k++)
             {
                 int i = order[k];
-                int before = idx.Count;
-                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], maxChord2, idx, d2);
-                counts[i] = idx.Count - before;
+                int before = found.Count;
+                tree.WithinRadius(x[i], y[i], z[i], maxChord2, found);
+                counts[i] = found.Count - before;
             }
-            chunkRight[c] = idx.ToArray();
-            chunkChord[c] = d2.ToArray();
+            chunkRight[c] = found.Right;
+            chunkChord[c] = found.Chord2;
         });
         var start = new int[n + 1];
         for (int i = 0; i < n; i++) start[i + 1] = start[i] + counts[i];

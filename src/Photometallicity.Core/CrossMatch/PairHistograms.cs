@@ -19,16 +19,15 @@ internal static class PairHistograms
         Chunks.For(queries.Count, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var h = new long[bins];
-            var idx = new List<int>();
-            var d2 = new List<double>();
+            var found = new PairBuffer(64);
             for (int k = lo; k < hi; k++)
             {
                 int i = order[k];
-                idx.Clear();
-                d2.Clear();
-                tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, idx, d2);
-                foreach (double v in d2)
+                found.Clear();
+                tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, found);
+                for (int m = 0; m < found.Count; m++)
                 {
+                    double v = found.Chord2[m];
                     double s = SkySeparation.RadiansFromChord2(v) * RadToArcsec;
                     if (s < maxArcsec) h[Math.Min(bins - 1, (int)(s / width))]++;
                 }
@@ -56,16 +55,15 @@ internal static class PairHistograms
         Chunks.For(order.Length, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var h = new long[side * side];
-            var idx = new List<int>();
-            var d2 = new List<double>();
+            var found = new PairBuffer(64);
             for (int k = lo; k < hi; k++)
             {
                 int i = order[k];
-                idx.Clear();
-                d2.Clear();
-                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, idx, d2);
-                foreach (int r in idx)
+                found.Clear();
+                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, found);
+                for (int m = 0; m < found.Count; m++)
                 {
+                    int r = found.Right[m];
                     double dx = rXi[r] - lXi[i], dy = rEta[r] - lEta[i];
                     if (!double.IsFinite(dx) || !double.IsFinite(dy)) continue;
                     int bx = (int)Math.Round(dx / binRad) + half, by = (int)Math.Round(dy / binRad) + half;

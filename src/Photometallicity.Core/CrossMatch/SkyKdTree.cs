@@ -1,108 +1,168 @@
 using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
 /// A balanced k-d tree (Bentley 1975, Commun. ACM 18, 509) over unit vectors on the celestial sphere.
 /// Distances are chord lengths in 3-D, which are monotonic in the great-circle angle, so there is no RA
 /// wrap and no pole to handle. Built in O(N log N): each node splits its range at the median (quickselect,
-/// Hoare 1961, Commun. ACM 4, 321) along the axis of largest extent; the layout is implicit (children of node
-/// k are 2k+1 and 2k+2, the split is at the middle of the range), so the tree depends only on the data.
-/// Queries are read-only and thread-safe. Ties in distance go to the smaller original index.
+/// Hoare 1961, Commun. ACM 4, 321) along the longest side of its bounding box; the layout is implicit
+/// (children of node k are 2k+1 and 2k+2, the split is at the middle of the range), so the tree depends only
+/// on the data. Points are stored together (x, y, z, index) so that a leaf is one run of memory.
+/// A tree can be re-used for slightly moved copies of its points (<see cref="WithMovedPoints"/>): the splits
+/// stay, and every pruning test is widened by the largest per-axis move, so the answers are exactly those of
+/// a tree built on the moved points. Queries are read-only and thread-safe. Ties in distance go to the
+/// smaller original index.
 /// </summary>
 public sealed class SkyKdTree
 {
     private const int LeafSize = 12;
     private const int ParallelDepth = 4;
+    private const int StackDepth = 64;
+    // A moved copy is re-used only when no point moved by more than this on any axis (about 20 arcsec);
+    // beyond it a fresh tree is cheaper than the widened searches (program's choice).
+    private const double MaxReuseSlack = 1e-4;
+    // Added to the measured largest move so that rounding in the widened tests can never prune a point
+    // inside the radius (1e-12 rad = 0.2 micro-arcsec; far above double rounding of unit-vector components).
+    private const double SlackPad = 1e-12;
 
-    private readonly double[] _x, _y, _z;
-    private readonly int[] _index;
-    private readonly byte[] _dim;
-    private readonly double[] _split;
-
-    private SkyKdTree(double[] x, double[] y, double[] z, int[] index, byte[] dim, double[] split)
+    [StructLayout(LayoutKind.Sequential)]
+    private struct Pt
     {
-        _x = x;
-        _y = y;
-        _z = z;
-        _index = index;
-        _dim = dim;
-        _split = split;
+        public double X, Y, Z;
+        public int Index;
     }
 
-    public int Count => _index.Length;
+    private readonly Pt[] _p;
+    private readonly byte[] _dim;
+    private readonly double[] _split;
+    private readonly double _slack;
+
+    private SkyKdTree(Pt[] p, byte[] dim, double[] split, double slack)
+    {
+        _p = p;
+        _dim = dim;
+        _split = split;
+        _slack = slack;
+    }
+
+    public int Count => _p.Length;
 
     /// <summary>Builds the tree over copies of the given vectors (the inputs are not modified).</summary>
     public static SkyKdTree Build(UnitVectors points)
     {
         int n = points.Count;
-        var x = (double[])points.X.Clone();
-        var y = (double[])points.Y.Clone();
-        var z = (double[])points.Z.Clone();
-        var index = new int[n];
-        for (int i = 0; i < n; i++) index[i] = i;
+        var p = new Pt[n];
+        double[] px = points.X, py = points.Y, pz = points.Z;
+        Chunks.For(n, (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++) p[i] = new Pt { X = px[i], Y = py[i], Z = pz[i], Index = i };
+        });
         int levels = 0;
         for (int m = n; m > LeafSize; m = (m + 1) / 2) levels++;
         int internalNodes = (1 << levels) - 1;
         var dim = new byte[Math.Max(1, internalNodes)];
         var split = new double[Math.Max(1, internalNodes)];
-        var tree = new SkyKdTree(x, y, z, index, dim, split);
-        tree.BuildNode(0, 0, n, 0);
+        var tree = new SkyKdTree(p, dim, split, 0.0);
+        if (n > LeafSize)
+        {
+            Span<double> box = stackalloc double[6];
+            box[0] = box[1] = box[2] = double.MaxValue;
+            box[3] = box[4] = box[5] = double.MinValue;
+            for (int i = 0; i < n; i++)
+            {
+                box[0] = Math.Min(box[0], px[i]);
+                box[1] = Math.Min(box[1], py[i]);
+                box[2] = Math.Min(box[2], pz[i]);
+                box[3] = Math.Max(box[3], px[i]);
+                box[4] = Math.Max(box[4], py[i]);
+                box[5] = Math.Max(box[5], pz[i]);
+            }
+            tree.BuildNode(0, 0, n, 0, box[0], box[1], box[2], box[3], box[4], box[5]);
+        }
         return tree;
     }
 
+    /// <summary>
+    /// A tree over <paramref name="moved"/>, which must be slightly moved copies of the points this tree was built
+    /// on (same count, same order); the splits are kept and the searches widened by the largest move.
+    /// Builds a fresh tree when the points moved too far for that to pay.
+    /// </summary>
+    public SkyKdTree WithMovedPoints(UnitVectors moved)
+    {
+        if (moved.Count != Count) throw new ArgumentException($"The moved points number {moved.Count}, the tree holds {Count}.");
+        int n = Count;
+        var p = new Pt[n];
+        var src = _p;
+        double[] mx = moved.X, my = moved.Y, mz = moved.Z;
+        var chunkMax = new double[Chunks.Count(n)];
+        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
+        {
+            double s = 0;
+            for (int k = lo; k < hi; k++)
+            {
+                int i = src[k].Index;
+                double x = mx[i], y = my[i], z = mz[i];
+                p[k] = new Pt { X = x, Y = y, Z = z, Index = i };
+                double d = Math.Max(Math.Abs(x - src[k].X), Math.Max(Math.Abs(y - src[k].Y), Math.Abs(z - src[k].Z)));
+                // NaN moves make the slack NaN, which sends the caller to a fresh tree.
+                s = double.IsNaN(d) || double.IsNaN(s) ? double.NaN : Math.Max(s, d);
+            }
+            chunkMax[c] = s;
+        });
+        double slack = _slack;
+        foreach (double s in chunkMax) slack = double.IsNaN(s) || double.IsNaN(slack) ? double.NaN : Math.Max(slack, s);
+        if (!(slack <= MaxReuseSlack)) return Build(moved);
+        return new SkyKdTree(p, _dim, _split, slack > 0 ? slack + SlackPad : 0.0);
+    }
+
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private void BuildNode(int node, int lo, int hi, int depth)
+    private void BuildNode(int node, int lo, int hi, int depth, double x0, double y0, double z0, double x1, double y1, double z1)
     {
         if (hi - lo <= LeafSize) return;
-        double minX = double.MaxValue, maxX = double.MinValue, minY = double.MaxValue, maxY = double.MinValue, minZ = double.MaxValue, maxZ = double.MinValue;
-        for (int i = lo; i < hi; i++)
-        {
-            double a = _x[i], b = _y[i], c = _z[i];
-            if (a < minX) minX = a;
-            if (a > maxX) maxX = a;
-            if (b < minY) minY = b;
-            if (b > maxY) maxY = b;
-            if (c < minZ) minZ = c;
-            if (c > maxZ) maxZ = c;
-        }
-        double ex = maxX - minX, ey = maxY - minY, ez = maxZ - minZ;
+        double ex = x1 - x0, ey = y1 - y0, ez = z1 - z0;
         int d = ex >= ey && ex >= ez ? 0 : ey >= ez ? 1 : 2;
         int mid = lo + (hi - lo) / 2;
-        Select(Axis(d), lo, hi - 1, mid);
+        Select(d, lo, hi - 1, mid);
+        double s = Coord(ref _p[mid], d);
         _dim[node] = (byte)d;
-        _split[node] = Axis(d)[mid];
+        _split[node] = s;
+        double lx1 = d == 0 ? s : x1, ly1 = d == 1 ? s : y1, lz1 = d == 2 ? s : z1;
+        double rx0 = d == 0 ? s : x0, ry0 = d == 1 ? s : y0, rz0 = d == 2 ? s : z0;
         if (depth < ParallelDepth && hi - lo > 50_000)
         {
             Parallel.Invoke(
-                () => BuildNode(2 * node + 1, lo, mid, depth + 1),
-                () => BuildNode(2 * node + 2, mid, hi, depth + 1));
+                () => BuildNode(2 * node + 1, lo, mid, depth + 1, x0, y0, z0, lx1, ly1, lz1),
+                () => BuildNode(2 * node + 2, mid, hi, depth + 1, rx0, ry0, rz0, x1, y1, z1));
         }
         else
         {
-            BuildNode(2 * node + 1, lo, mid, depth + 1);
-            BuildNode(2 * node + 2, mid, hi, depth + 1);
+            BuildNode(2 * node + 1, lo, mid, depth + 1, x0, y0, z0, lx1, ly1, lz1);
+            BuildNode(2 * node + 2, mid, hi, depth + 1, rx0, ry0, rz0, x1, y1, z1);
         }
     }
 
-    private double[] Axis(int d) => d == 0 ? _x : d == 1 ? _y : _z;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static double Coord(ref Pt p, int d) => Unsafe.Add(ref p.X, d);
 
-    /// <summary>Quickselect (Wirth's variant of Hoare's FIND): puts the k-th smallest of c[lo..hi] at k.</summary>
+    /// <summary>Quickselect (Wirth's variant of Hoare's FIND): puts the k-th smallest of axis d over [lo..hi] at k.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private void Select(double[] c, int lo, int hi, int k)
+    private void Select(int d, int lo, int hi, int k)
     {
+        var c = _p;
         while (hi > lo)
         {
             int m = lo + (hi - lo) / 2;
-            double a = c[lo], b = c[m], e = c[hi];
+            double a = Coord(ref c[lo], d), b = Coord(ref c[m], d), e = Coord(ref c[hi], d);
             double pivot = a < b ? (b < e ? b : a < e ? e : a) : (a < e ? a : b < e ? e : b);
             int i = lo, j = hi;
             do
             {
-                while (c[i] < pivot) i++;
-                while (pivot < c[j]) j--;
+                while (Coord(ref c[i], d) < pivot) i++;
+                while (pivot < Coord(ref c[j], d)) j--;
                 if (i <= j)
                 {
-                    Swap(i, j);
+                    (c[i], c[j]) = (c[j], c[i]);
                     i++;
                     j--;
                 }
@@ -110,14 +170,6 @@ public sealed class SkyKdTree
             if (j < k) lo = i;
             if (k < i) hi = j;
         }
-    }
-
-    private void Swap(int i, int j)
-    {
-        (_x[i], _x[j]) = (_x[j], _x[i]);
-        (_y[i], _y[j]) = (_y[j], _y[i]);
-        (_z[i], _z[j]) = (_z[j], _z[i]);
-        (_index[i], _index[j]) = (_index[j], _index[i]);
     }
 
     /// <summary>
@@ -145,12 +197,13 @@ public sealed class SkyKdTree
         {
             for (int i = lo; i < hi; i++)
             {
-                double dx = _x[i] - qx, dy = _y[i] - qy, dz = _z[i] - qz;
+                ref Pt p = ref _p[i];
+                double dx = p.X - qx, dy = p.Y - qy, dz = p.Z - qz;
                 double d2 = dx * dx + dy * dy + dz * dz;
-                if (d2 < best2 || (d2 == best2 && _index[i] < best))
+                if (d2 < best2 || (d2 == best2 && p.Index < best))
                 {
                     best2 = d2;
-                    best = _index[i];
+                    best = p.Index;
                 }
             }
             return;
@@ -158,95 +211,206 @@ public sealed class SkyKdTree
         int mid = lo + (hi - lo) / 2;
         int d = _dim[node];
         double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+        double dl = diff - _slack, dr = -diff - _slack;
         if (diff < 0)
         {
             Nearest(2 * node + 1, lo, mid, qx, qy, qz, ref best2, ref best);
-            if (diff * diff <= best2) Nearest(2 * node + 2, mid, hi, qx, qy, qz, ref best2, ref best);
+            if (dr < 0 || dr * dr <= best2) Nearest(2 * node + 2, mid, hi, qx, qy, qz, ref best2, ref best);
         }
         else
         {
             Nearest(2 * node + 2, mid, hi, qx, qy, qz, ref best2, ref best);
-            if (diff * diff <= best2) Nearest(2 * node + 1, lo, mid, qx, qy, qz, ref best2, ref best);
+            if (dl < 0 || dl * dl <= best2) Nearest(2 * node + 1, lo, mid, qx, qy, qz, ref best2, ref best);
         }
     }
 
     /// <summary>Appends every point with squared chord at most <paramref name="maxChord2"/> (original index, squared chord).</summary>
     public void WithinRadius(double qx, double qy, double qz, double maxChord2, List<int> indices, List<double> chord2)
     {
-        if (Count > 0) Within(0, 0, Count, qx, qy, qz, maxChord2, indices, chord2);
+        var buffer = new PairBuffer(16);
+        WithinRadius(qx, qy, qz, maxChord2, buffer);
+        for (int k = 0; k < buffer.Count; k++)
+        {
+            indices.Add(buffer.Right[k]);
+            chord2.Add(buffer.Chord2[k]);
+        }
     }
 
+    /// <summary>Appends every point with squared chord at most <paramref name="r2"/> to <paramref name="found"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private void Within(int node, int lo, int hi, double qx, double qy, double qz, double r2, List<int> indices, List<double> chord2)
+    internal void WithinRadius(double qx, double qy, double qz, double r2, PairBuffer found)
     {
-        if (hi - lo <= LeafSize)
+        if (Count == 0) return;
+        Span<int> stack = stackalloc int[3 * StackDepth];
+        int sp = 0;
+        int node = 0, lo = 0, hi = Count;
+        var pts = _p;
+        double slack = _slack;
+        while (true)
         {
-            for (int i = lo; i < hi; i++)
+            while (hi - lo > LeafSize)
             {
-                double dx = _x[i] - qx, dy = _y[i] - qy, dz = _z[i] - qz;
-                double d2 = dx * dx + dy * dy + dz * dz;
-                if (d2 <= r2)
+                int mid = lo + (hi - lo) / 2;
+                int d = _dim[node];
+                double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+                double dl = diff - slack, dr = -diff - slack;
+                bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
+                if (goL)
                 {
-                    indices.Add(_index[i]);
-                    chord2.Add(d2);
+                    if (goR)
+                    {
+                        stack[sp] = 2 * node + 2;
+                        stack[sp + 1] = mid;
+                        stack[sp + 2] = hi;
+                        sp += 3;
+                    }
+                    node = 2 * node + 1;
+                    hi = mid;
+                }
+                else if (goR)
+                {
+                    node = 2 * node + 2;
+                    lo = mid;
+                }
+                else
+                {
+                    lo = hi;
                 }
             }
-            return;
+            for (int i = lo; i < hi; i++)
+            {
+                ref Pt p = ref pts[i];
+                double dx = p.X - qx, dy = p.Y - qy, dz = p.Z - qz;
+                double d2 = dx * dx + dy * dy + dz * dz;
+                if (d2 <= r2) found.Add(p.Index, d2);
+            }
+            if (sp == 0) return;
+            sp -= 3;
+            node = stack[sp];
+            lo = stack[sp + 1];
+            hi = stack[sp + 2];
         }
-        int mid = lo + (hi - lo) / 2;
-        int d = _dim[node];
-        double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
-        if (diff < 0 || diff * diff <= r2) Within(2 * node + 1, lo, mid, qx, qy, qz, r2, indices, chord2);
-        if (diff >= 0 || diff * diff <= r2) Within(2 * node + 2, mid, hi, qx, qy, qz, r2, indices, chord2);
     }
 
     /// <summary>The number of points with squared chord at most <paramref name="maxChord2"/>.</summary>
-    public int CountWithin(double qx, double qy, double qz, double maxChord2) =>
-        Count > 0 ? CountNode(0, 0, Count, qx, qy, qz, maxChord2) : 0;
-
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private int CountNode(int node, int lo, int hi, double qx, double qy, double qz, double r2)
+    public int CountWithin(double qx, double qy, double qz, double maxChord2)
     {
-        if (hi - lo <= LeafSize)
+        if (Count == 0) return 0;
+        Span<int> stack = stackalloc int[3 * StackDepth];
+        int sp = 0, n = 0;
+        int node = 0, lo = 0, hi = Count;
+        var pts = _p;
+        double slack = _slack, r2 = maxChord2;
+        while (true)
         {
-            int c = 0;
+            while (hi - lo > LeafSize)
+            {
+                int mid = lo + (hi - lo) / 2;
+                int d = _dim[node];
+                double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+                double dl = diff - slack, dr = -diff - slack;
+                bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
+                if (goL)
+                {
+                    if (goR)
+                    {
+                        stack[sp] = 2 * node + 2;
+                        stack[sp + 1] = mid;
+                        stack[sp + 2] = hi;
+                        sp += 3;
+                    }
+                    node = 2 * node + 1;
+                    hi = mid;
+                }
+                else if (goR)
+                {
+                    node = 2 * node + 2;
+                    lo = mid;
+                }
+                else
+                {
+                    lo = hi;
+                }
+            }
             for (int i = lo; i < hi; i++)
             {
-                double dx = _x[i] - qx, dy = _y[i] - qy, dz = _z[i] - qz;
-                if (dx * dx + dy * dy + dz * dz <= r2) c++;
+                ref Pt p = ref pts[i];
+                double dx = p.X - qx, dy = p.Y - qy, dz = p.Z - qz;
+                if (dx * dx + dy * dy + dz * dz <= r2) n++;
             }
-            return c;
+            if (sp == 0) return n;
+            sp -= 3;
+            node = stack[sp];
+            lo = stack[sp + 1];
+            hi = stack[sp + 2];
         }
-        int mid = lo + (hi - lo) / 2;
-        int d = _dim[node];
-        double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
-        int n = 0;
-        if (diff < 0 || diff * diff <= r2) n += CountNode(2 * node + 1, lo, mid, qx, qy, qz, r2);
-        if (diff >= 0 || diff * diff <= r2) n += CountNode(2 * node + 2, mid, hi, qx, qy, qz, r2);
-        return n;
     }
 
     /// <summary>True when at least one point lies within squared chord <paramref name="maxChord2"/>.</summary>
-    public bool AnyWithin(double qx, double qy, double qz, double maxChord2) =>
-        Count > 0 && AnyNode(0, 0, Count, qx, qy, qz, maxChord2);
-
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private bool AnyNode(int node, int lo, int hi, double qx, double qy, double qz, double r2)
+    public bool AnyWithin(double qx, double qy, double qz, double maxChord2)
     {
-        if (hi - lo <= LeafSize)
+        if (Count == 0) return false;
+        Span<int> stack = stackalloc int[3 * StackDepth];
+        int sp = 0;
+        int node = 0, lo = 0, hi = Count;
+        var pts = _p;
+        double slack = _slack, r2 = maxChord2;
+        while (true)
         {
+            while (hi - lo > LeafSize)
+            {
+                int mid = lo + (hi - lo) / 2;
+                int d = _dim[node];
+                double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+                double dl = diff - slack, dr = -diff - slack;
+                bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
+                // Near side first, the other one stacked: a hit ends the search early.
+                if (goL && goR)
+                {
+                    bool leftFirst = diff < 0;
+                    stack[sp] = leftFirst ? 2 * node + 2 : 2 * node + 1;
+                    stack[sp + 1] = leftFirst ? mid : lo;
+                    stack[sp + 2] = leftFirst ? hi : mid;
+                    sp += 3;
+                    if (leftFirst)
+                    {
+                        node = 2 * node + 1;
+                        hi = mid;
+                    }
+                    else
+                    {
+                        node = 2 * node + 2;
+                        lo = mid;
+                    }
+                }
+                else if (goL)
+                {
+                    node = 2 * node + 1;
+                    hi = mid;
+                }
+                else if (goR)
+                {
+                    node = 2 * node + 2;
+                    lo = mid;
+                }
+                else
+                {
+                    lo = hi;
+                }
+            }
             for (int i = lo; i < hi; i++)
             {
-                double dx = _x[i] - qx, dy = _y[i] - qy, dz = _z[i] - qz;
+                ref Pt p = ref pts[i];
+                double dx = p.X - qx, dy = p.Y - qy, dz = p.Z - qz;
                 if (dx * dx + dy * dy + dz * dz <= r2) return true;
             }
-            return false;
+            if (sp == 0) return false;
+            sp -= 3;
+            node = stack[sp];
+            lo = stack[sp + 1];
+            hi = stack[sp + 2];
         }
-        int mid = lo + (hi - lo) / 2;
-        int d = _dim[node];
-        double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
-        if (diff < 0)
-            return AnyNode(2 * node + 1, lo, mid, qx, qy, qz, r2) || (diff * diff <= r2 && AnyNode(2 * node + 2, mid, hi, qx, qy, qz, r2));
-        return AnyNode(2 * node + 2, mid, hi, qx, qy, qz, r2) || (diff * diff <= r2 && AnyNode(2 * node + 1, lo, mid, qx, qy, qz, r2));
     }
 }
