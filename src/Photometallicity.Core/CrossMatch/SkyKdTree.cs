@@ -10,8 +10,8 @@ namespace Photometallicity.CrossMatch;
 /// (children of node k are 2k+1 and 2k+2, the split is at the middle of the range), so the tree depends only
 /// on the data. Points are stored together (x, y, z, index) so that a leaf is one run of memory.
 /// A tree can be re-used for slightly moved copies of its points (<see cref="WithMovedPoints"/>): the splits
-/// stay, and every pruning test is widened by the largest per-axis move, so the answers are exactly those of
-/// a tree built on the moved points. Queries are read-only and thread-safe. Ties in distance go to the
+/// are shifted by the common part of the move and every pruning test is widened by the rest, so the answers are
+/// exactly those of a tree built on the moved points. Queries are read-only and thread-safe. Ties in distance go to the
 /// smaller original index.
 /// </summary>
 public sealed class SkyKdTree
@@ -85,35 +85,70 @@ public sealed class SkyKdTree
 
     /// <summary>
     /// A tree over <paramref name="moved"/>, which must be slightly moved copies of the points this tree was built
-    /// on (same count, same order); the splits are kept and the searches widened by the largest move.
-    /// Builds a fresh tree when the points moved too far for that to pay.
+    /// on (same count, same order). The common part of the move (per axis, the middle of its range) shifts every
+    /// split; the rest, at most the slack, widens every pruning test. Builds a fresh tree when the points moved
+    /// too unevenly for that to pay.
     /// </summary>
     public SkyKdTree WithMovedPoints(UnitVectors moved)
     {
         if (moved.Count != Count) throw new ArgumentException($"The moved points number {moved.Count}, the tree holds {Count}.");
+        if (_slack != 0.0) return Build(moved);
         int n = Count;
         var p = new Pt[n];
         var src = _p;
         double[] mx = moved.X, my = moved.Y, mz = moved.Z;
-        var chunkMax = new double[Chunks.Count(n)];
+        int chunks = Chunks.Count(n);
+        var range = new double[chunks * 6];
         Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
-            double s = 0;
+            double x0 = double.PositiveInfinity, y0 = double.PositiveInfinity, z0 = double.PositiveInfinity;
+            double x1 = double.NegativeInfinity, y1 = double.NegativeInfinity, z1 = double.NegativeInfinity;
+            bool bad = false;
             for (int k = lo; k < hi; k++)
             {
                 int i = src[k].Index;
                 double x = mx[i], y = my[i], z = mz[i];
                 p[k] = new Pt { X = x, Y = y, Z = z, Index = i };
-                double d = Math.Max(Math.Abs(x - src[k].X), Math.Max(Math.Abs(y - src[k].Y), Math.Abs(z - src[k].Z)));
-                // NaN moves make the slack NaN, which sends the caller to a fresh tree.
-                s = double.IsNaN(d) || double.IsNaN(s) ? double.NaN : Math.Max(s, d);
+                double dx = x - src[k].X, dy = y - src[k].Y, dz = z - src[k].Z;
+                bad |= !double.IsFinite(dx) || !double.IsFinite(dy) || !double.IsFinite(dz);
+                x0 = Math.Min(x0, dx);
+                x1 = Math.Max(x1, dx);
+                y0 = Math.Min(y0, dy);
+                y1 = Math.Max(y1, dy);
+                z0 = Math.Min(z0, dz);
+                z1 = Math.Max(z1, dz);
             }
-            chunkMax[c] = s;
+            if (bad) x0 = double.NaN;
+            range[6 * c] = x0;
+            range[6 * c + 1] = y0;
+            range[6 * c + 2] = z0;
+            range[6 * c + 3] = x1;
+            range[6 * c + 4] = y1;
+            range[6 * c + 5] = z1;
         });
-        double slack = _slack;
-        foreach (double s in chunkMax) slack = double.IsNaN(s) || double.IsNaN(slack) ? double.NaN : Math.Max(slack, s);
+        Span<double> lo3 = stackalloc double[3];
+        Span<double> hi3 = stackalloc double[3];
+        lo3.Fill(double.PositiveInfinity);
+        hi3.Fill(double.NegativeInfinity);
+        for (int c = 0; c < chunks; c++)
+            for (int d = 0; d < 3; d++)
+            {
+                if (double.IsNaN(range[6 * c + d])) return Build(moved);
+                lo3[d] = Math.Min(lo3[d], range[6 * c + d]);
+                hi3[d] = Math.Max(hi3[d], range[6 * c + 3 + d]);
+            }
+        Span<double> shift = stackalloc double[3];
+        double slack = 0;
+        for (int d = 0; d < 3; d++)
+        {
+            shift[d] = n == 0 ? 0.0 : 0.5 * (lo3[d] + hi3[d]);
+            if (n > 0) slack = Math.Max(slack, Math.Max(hi3[d] - shift[d], shift[d] - lo3[d]));
+        }
         if (!(slack <= MaxReuseSlack)) return Build(moved);
-        return new SkyKdTree(p, _dim, _split, slack > 0 ? slack + SlackPad : 0.0);
+        var split = new double[_split.Length];
+        int internalNodes = split.Length;
+        for (int node = 0; node < internalNodes; node++) split[node] = _split[node] + shift[_dim[node]];
+        return new SkyKdTree(p, _dim, split, slack + SlackPad);
     }
 
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
