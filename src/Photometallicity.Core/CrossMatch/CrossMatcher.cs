@@ -54,7 +54,9 @@ public static class CrossMatcher
             logger?.LogDebug("crossmatch: tree of the right catalogue {Ms}", Elapsed(clock));
             var (lXi, lEta) = plane!.ProjectAll(left);
             var (rXi, rEta) = plane.ProjectAll(rightRaw);
+            logger?.LogDebug("crossmatch: projections {Ms}", Elapsed(clock));
             var solver = new OffsetSolver(plane, rawTree, left, lXi, lEta, rXi, rEta);
+            logger?.LogDebug("crossmatch: spatial order {Ms}", Elapsed(clock));
             double search = (options.OffsetSearchRadius ?? Angle.FromArcseconds(Math.Max(3.0 * radius.Arcseconds, 3.0))).Radians;
             var start = solver.InitialEstimate(search);
             logger?.LogDebug("crossmatch: first offset estimate {Est} from the pair-offset histogram within {Search:0.##} arcsec",
@@ -81,6 +83,7 @@ public static class CrossMatcher
             else
             {
                 transform = outcome.Transform;
+                logger?.LogDebug("crossmatch: iterations {Ms}", Elapsed(clock));
                 right = solver.CorrectRight(transform, rightRaw);
             }
         }

@@ -56,15 +56,27 @@ internal static class PairHistograms
         {
             var h = new long[side * side];
             var found = new PairBuffer(64);
-            for (int k = lo; k < hi; k++)
+            // The chunk's rows gathered first (independent loads that overlap), then searched in order.
+            int m = hi - lo;
+            var q = new double[5 * m];
+            for (int k = 0; k < m; k++)
             {
-                int i = order[k];
+                int i = order[lo + k];
+                q[5 * k] = left.X[i];
+                q[5 * k + 1] = left.Y[i];
+                q[5 * k + 2] = left.Z[i];
+                q[5 * k + 3] = lXi[i];
+                q[5 * k + 4] = lEta[i];
+            }
+            for (int k = 0; k < m; k++)
+            {
                 found.Clear();
-                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, found);
-                for (int m = 0; m < found.Count; m++)
+                tree.WithinRadius(q[5 * k], q[5 * k + 1], q[5 * k + 2], chord * chord, found);
+                double xi = q[5 * k + 3], eta = q[5 * k + 4];
+                for (int j = 0; j < found.Count; j++)
                 {
-                    int r = found.Right[m];
-                    double dx = rXi[r] - lXi[i], dy = rEta[r] - lEta[i];
+                    int r = found.Right[j];
+                    double dx = rXi[r] - xi, dy = rEta[r] - eta;
                     if (!double.IsFinite(dx) || !double.IsFinite(dy)) continue;
                     int bx = (int)Math.Round(dx / binRad) + half, by = (int)Math.Round(dy / binRad) + half;
                     if (bx >= 0 && bx < side && by >= 0 && by < side) h[by * side + bx]++;

@@ -16,7 +16,7 @@ namespace Photometallicity.CrossMatch;
 /// </summary>
 public sealed class SkyKdTree
 {
-    private const int LeafSize = 12;
+    private const int LeafSize = 32;
     private const int ParallelDepth = 4;
     private const int StackDepth = 64;
     // A moved copy is re-used only when no point moved by more than this on any axis (about 20 arcsec);
