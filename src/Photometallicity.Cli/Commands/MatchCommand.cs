@@ -108,9 +108,13 @@ internal static class MatchCommand
         return (PositionValidation.RequireNumeric(table, raName), PositionValidation.RequireNumeric(table, decName));
     }
 
-    /// <summary>The values of a double column with NaN where it is masked (what <see cref="Column.ToDoubleArray"/> gives).</summary>
+    /// <summary>
+    /// The values of a double column with NaN where it is masked (what <see cref="Column.ToDoubleArray"/> gives): the
+    /// column's own array when nothing is masked (the match only reads it), otherwise a copy.
+    /// </summary>
     private static double[] Copy(Column<double> c)
     {
+        if (c.Missing is null) return c.Values;
         var v = (double[])c.Values.Clone();
         if (c.Missing is { } m)
             for (int i = 0; i < v.Length; i++)

@@ -33,16 +33,21 @@ public sealed class SkyKdTree
         public int Index;
     }
 
+    /// <summary>An internal node: the split value and its axis, together so that a step down reads one place.</summary>
+    private struct Node
+    {
+        public double Split;
+        public int Dim;
+    }
+
     private readonly Pt[] _p;
-    private readonly byte[] _dim;
-    private readonly double[] _split;
+    private readonly Node[] _nodes;
     private readonly double _slack;
 
-    private SkyKdTree(Pt[] p, byte[] dim, double[] split, double slack)
+    private SkyKdTree(Pt[] p, Node[] nodes, double slack)
     {
         _p = p;
-        _dim = dim;
-        _split = split;
+        _nodes = nodes;
         _slack = slack;
     }
 
@@ -61,9 +66,7 @@ public sealed class SkyKdTree
         int levels = 0;
         for (int m = n; m > LeafSize; m = (m + 1) / 2) levels++;
         int internalNodes = (1 << levels) - 1;
-        var dim = new byte[Math.Max(1, internalNodes)];
-        var split = new double[Math.Max(1, internalNodes)];
-        var tree = new SkyKdTree(p, dim, split, 0.0);
+        var tree = new SkyKdTree(p, new Node[Math.Max(1, internalNodes)], 0.0);
         if (n > LeafSize)
         {
             Span<double> box = stackalloc double[6];
@@ -145,10 +148,10 @@ public sealed class SkyKdTree
             if (n > 0) slack = Math.Max(slack, Math.Max(hi3[d] - shift[d], shift[d] - lo3[d]));
         }
         if (!(slack <= MaxReuseSlack)) return Build(moved);
-        var split = new double[_split.Length];
-        int internalNodes = split.Length;
-        for (int node = 0; node < internalNodes; node++) split[node] = _split[node] + shift[_dim[node]];
-        return new SkyKdTree(p, _dim, split, slack + SlackPad);
+        var nodes = new Node[_nodes.Length];
+        for (int node = 0; node < nodes.Length; node++)
+            nodes[node] = new Node { Split = _nodes[node].Split + shift[_nodes[node].Dim], Dim = _nodes[node].Dim };
+        return new SkyKdTree(p, nodes, slack + SlackPad);
     }
 
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
@@ -160,8 +163,7 @@ public sealed class SkyKdTree
         int mid = lo + (hi - lo) / 2;
         Select(d, lo, hi - 1, mid);
         double s = Coord(ref _p[mid], d);
-        _dim[node] = (byte)d;
-        _split[node] = s;
+        _nodes[node] = new Node { Split = s, Dim = d };
         double lx1 = d == 0 ? s : x1, ly1 = d == 1 ? s : y1, lz1 = d == 2 ? s : z1;
         double rx0 = d == 0 ? s : x0, ry0 = d == 1 ? s : y0, rz0 = d == 2 ? s : z0;
         if (depth < ParallelDepth && hi - lo > 50_000)
@@ -244,8 +246,9 @@ public sealed class SkyKdTree
             return;
         }
         int mid = lo + (hi - lo) / 2;
-        int d = _dim[node];
-        double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+        ref Node nd = ref _nodes[node];
+        int d = nd.Dim;
+        double diff = (d == 0 ? qx : d == 1 ? qy : qz) - nd.Split;
         double dl = diff - _slack, dr = -diff - _slack;
         if (diff < 0)
         {
@@ -280,14 +283,19 @@ public sealed class SkyKdTree
         int sp = 0;
         int node = 0, lo = 0, hi = Count;
         var pts = _p;
+        var nodes = _nodes;
+        Span<double> q = stackalloc double[3];
+        q[0] = qx;
+        q[1] = qy;
+        q[2] = qz;
         double slack = _slack;
         while (true)
         {
             while (hi - lo > LeafSize)
             {
                 int mid = lo + (hi - lo) / 2;
-                int d = _dim[node];
-                double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+                ref Node nd = ref nodes[node];
+                double diff = q[nd.Dim] - nd.Split;
                 double dl = diff - slack, dr = -diff - slack;
                 bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
                 if (goL)
@@ -336,14 +344,19 @@ public sealed class SkyKdTree
         int sp = 0, n = 0;
         int node = 0, lo = 0, hi = Count;
         var pts = _p;
+        var nodes = _nodes;
+        Span<double> q = stackalloc double[3];
+        q[0] = qx;
+        q[1] = qy;
+        q[2] = qz;
         double slack = _slack, r2 = maxChord2;
         while (true)
         {
             while (hi - lo > LeafSize)
             {
                 int mid = lo + (hi - lo) / 2;
-                int d = _dim[node];
-                double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+                ref Node nd = ref nodes[node];
+                double diff = q[nd.Dim] - nd.Split;
                 double dl = diff - slack, dr = -diff - slack;
                 bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
                 if (goL)
@@ -391,14 +404,19 @@ public sealed class SkyKdTree
         int sp = 0;
         int node = 0, lo = 0, hi = Count;
         var pts = _p;
+        var nodes = _nodes;
+        Span<double> q = stackalloc double[3];
+        q[0] = qx;
+        q[1] = qy;
+        q[2] = qz;
         double slack = _slack, r2 = maxChord2;
         while (true)
         {
             while (hi - lo > LeafSize)
             {
                 int mid = lo + (hi - lo) / 2;
-                int d = _dim[node];
-                double diff = (d == 0 ? qx : d == 1 ? qy : qz) - _split[node];
+                ref Node nd = ref nodes[node];
+                double diff = q[nd.Dim] - nd.Split;
                 double dl = diff - slack, dr = -diff - slack;
                 bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
                 // Near side first, the other one stacked: a hit ends the search early.

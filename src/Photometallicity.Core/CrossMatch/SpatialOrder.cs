@@ -69,9 +69,11 @@ internal static class SpatialOrder
         if (!ReferenceEquals(oa, order)) Array.Copy(oa, order, n);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static ulong Quantise(double v) => (ulong)Math.Clamp((int)((v + 1.0) * 0.5 * 2097151.0), 0, 2097151);
 
     /// <summary>Spreads the low 21 bits of x so that there are two zero bits between consecutive bits.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static ulong Spread(ulong x)
     {
         x &= 0x1FFFFF;
