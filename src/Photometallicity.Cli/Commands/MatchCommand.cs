@@ -50,13 +50,19 @@ internal static class MatchCommand
                 SolveOffset = !pr.GetValue(noOffset),
                 SolveRotationScale = pr.GetValue(rotation),
             };
+            var log = new WarningsOnly(ctx.Logger("match"));
+            var clock = System.Diagnostics.Stopwatch.StartNew();
             var left = CatalogueIO.Read(leftPath);
             var right = CatalogueIO.Read(rightPath);
+            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: read {Ms} ms", clock.ElapsedMilliseconds);
             var (lra, ldec) = Positions(left, pr.GetValue(leftRa)!, pr.GetValue(leftDec)!);
             var (rra, rdec) = Positions(right, pr.GetValue(rightRa)!, pr.GetValue(rightDec)!);
+            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: positions checked {Ms} ms", clock.ElapsedMilliseconds);
             // The stage's own information lines repeat the summary below; keep only its warnings.
-            var result = CrossMatcher.Run(lra, ldec, rra, rdec, options, new WarningsOnly(ctx.Logger("match")));
+            var result = CrossMatcher.Run(lra, ldec, rra, rdec, options, log);
+            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: matched {Ms} ms", clock.ElapsedMilliseconds);
             var table = MatchedTable.Join(left, right, result, pr.GetValue(prefix)!);
+            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: joined {Ms} ms", clock.ElapsedMilliseconds);
             if (outPath is null)
             {
                 using var ms = new MemoryStream();
@@ -67,6 +73,7 @@ internal static class MatchCommand
             {
                 CatalogueIO.Write(table, outPath);
             }
+            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: written {Ms} ms", clock.ElapsedMilliseconds);
             WriteSummary(ctx.Error, result, outPath);
             return 0;
         }));
@@ -85,8 +92,34 @@ internal static class MatchCommand
     /// <summary>RA and Dec as doubles, after the catalogue layer's checks (file, row, column and value on failure).</summary>
     internal static (double[] Ra, double[] Dec) Positions(Table table, string raName, string decName)
     {
+        // Fast path for the usual double columns: one copy each (NaN where masked) and one scan. When the scan
+        // finds a bad row, the catalogue layer's own check runs and reports it (same rule, same message).
+        if (table.TryGet(raName, out var raColumn) && raColumn is Column<double> raD
+            && table.TryGet(decName, out var decColumn) && decColumn is Column<double> decD)
+        {
+            var ra = Copy(raD);
+            var dec = Copy(decD);
+            bool ok = true;
+            for (int i = 0; i < ra.Length && ok; i++)
+                ok = ra[i] >= 0.0 && ra[i] < 360.0 && dec[i] >= -90.0 && dec[i] <= 90.0;
+            if (ok) return (ra, dec);
+        }
         PositionValidation.Validate(table, raName, decName, idColumn: null);
         return (PositionValidation.RequireNumeric(table, raName), PositionValidation.RequireNumeric(table, decName));
+    }
+
+    /// <summary>
+    /// The values of a double column with NaN where it is masked (what <see cref="Column.ToDoubleArray"/> gives): the
+    /// column's own array when nothing is masked (the match only reads it), otherwise a copy.
+    /// </summary>
+    private static double[] Copy(Column<double> c)
+    {
+        if (c.Missing is null) return c.Values;
+        var v = (double[])c.Values.Clone();
+        if (c.Missing is { } m)
+            for (int i = 0; i < v.Length; i++)
+                if (m[i]) v[i] = double.NaN;
+        return v;
     }
 
     private static void WriteSummary(TextWriter w, CrossMatchResult r, string? outPath)

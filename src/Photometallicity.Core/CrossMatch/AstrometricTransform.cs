@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace Photometallicity.CrossMatch;
 
 /// <summary>
@@ -14,9 +15,11 @@ public readonly record struct AstrometricTransform(double A, double B, double DX
     public double RotationRadians => Math.Atan2(B, A);
 
     /// <summary>Left standard coordinates mapped into the right catalogue's frame.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public (double Xi, double Eta) Forward(double xi, double eta) => (A * xi - B * eta + DXi, B * xi + A * eta + DEta);
 
     /// <summary>Right standard coordinates corrected into the left catalogue's frame.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public (double Xi, double Eta) Inverse(double xi, double eta)
     {
         double u = xi - DXi, v = eta - DEta, s = 1.0 / (A * A + B * B);

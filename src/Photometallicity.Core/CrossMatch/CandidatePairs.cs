@@ -29,23 +29,36 @@ public sealed class CandidatePairs
         int n = left.Count;
         int chunks = Chunks.Count(n);
         var order = left.Order;
-        var counts = new int[n];
+        var countInOrder = new int[n];
         var chunkRight = new int[chunks][];
         var chunkChord = new double[chunks][];
+        double[] x = left.X, y = left.Y, z = left.Z;
         Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
-            var idx = new List<int>(hi - lo);
-            var d2 = new List<double>(hi - lo);
-            for (int k = lo; k < hi; k++)
+            // The chunk's query points gathered first (independent loads that overlap), then searched in order.
+            int m = hi - lo;
+            var qx = new double[m];
+            var qy = new double[m];
+            var qz = new double[m];
+            for (int k = 0; k < m; k++)
             {
-                int i = order[k];
-                int before = idx.Count;
-                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], maxChord2, idx, d2);
-                counts[i] = idx.Count - before;
+                int i = order[lo + k];
+                qx[k] = x[i];
+                qy[k] = y[i];
+                qz[k] = z[i];
             }
-            chunkRight[c] = idx.ToArray();
-            chunkChord[c] = d2.ToArray();
+            var found = new PairBuffer(2 * m);
+            for (int k = 0; k < m; k++)
+            {
+                int before = found.Count;
+                tree.WithinRadius(qx[k], qy[k], qz[k], maxChord2, found);
+                countInOrder[lo + k] = found.Count - before;
+            }
+            chunkRight[c] = found.Right;
+            chunkChord[c] = found.Chord2;
         });
+        var counts = new int[n];
+        for (int k = 0; k < n; k++) counts[order[k]] = countInOrder[k];
         var start = new int[n + 1];
         for (int i = 0; i < n; i++) start[i + 1] = start[i] + counts[i];
         var right = new int[start[n]];
@@ -58,10 +71,14 @@ public sealed class CandidatePairs
             var cc = chunkChord[c];
             for (int k = lo; k < hi; k++)
             {
-                int i = order[k];
-                int m = counts[i];
-                Array.Copy(cr, at, right, start[i], m);
-                Array.Copy(cc, at, chord, start[i], m);
+                int m = countInOrder[k];
+                if (m == 0) continue;
+                int to = start[order[k]];
+                for (int j = 0; j < m; j++)
+                {
+                    right[to + j] = cr[at + j];
+                    chord[to + j] = cc[at + j];
+                }
                 at += m;
             }
         });

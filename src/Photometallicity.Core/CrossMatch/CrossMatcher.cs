@@ -54,7 +54,9 @@ public static class CrossMatcher
             logger?.LogDebug("crossmatch: tree of the right catalogue {Ms}", Elapsed(clock));
             var (lXi, lEta) = plane!.ProjectAll(left);
             var (rXi, rEta) = plane.ProjectAll(rightRaw);
+            logger?.LogDebug("crossmatch: projections {Ms}", Elapsed(clock));
             var solver = new OffsetSolver(plane, rawTree, left, lXi, lEta, rXi, rEta);
+            logger?.LogDebug("crossmatch: spatial order {Ms}", Elapsed(clock));
             double search = (options.OffsetSearchRadius ?? Angle.FromArcseconds(Math.Max(3.0 * radius.Arcseconds, 3.0))).Radians;
             var start = solver.InitialEstimate(search);
             logger?.LogDebug("crossmatch: first offset estimate {Est} from the pair-offset histogram within {Search:0.##} arcsec",
@@ -81,12 +83,15 @@ public static class CrossMatcher
             else
             {
                 transform = outcome.Transform;
+                logger?.LogDebug("crossmatch: iterations {Ms}", Elapsed(clock));
                 right = solver.CorrectRight(transform, rightRaw);
             }
         }
 
         logger?.LogDebug("crossmatch: offset iterations done {Ms}", Elapsed(clock));
-        var tree = ReferenceEquals(right, rightRaw) && rawTree is not null ? rawTree : SkyKdTree.Build(right);
+        // The corrected catalogue is the observed one moved by the (small) offset: the observed tree is re-used with
+        // widened searches, which finds exactly the pairs a new tree would.
+        var tree = rawTree is null ? SkyKdTree.Build(right) : ReferenceEquals(right, rightRaw) ? rawTree : rawTree.WithMovedPoints(right);
         logger?.LogDebug("crossmatch: tree of the corrected catalogue {Ms}", Elapsed(clock));
         if (options.AutoRadius && outcome is null)
         {
@@ -97,7 +102,9 @@ public static class CrossMatcher
 
         double chord = SkySeparation.Chord(radius);
         var pairs = CandidatePairs.Find(tree, left, chord * chord);
+        logger?.LogDebug("crossmatch: candidate pairs {Ms}", Elapsed(clock));
         var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
+        logger?.LogDebug("crossmatch: assignment {Ms}", Elapsed(clock));
         var sep = new double[nLeft];
         var blend = new bool[nLeft];
         Chunks.For(nLeft, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
@@ -128,7 +135,9 @@ public static class CrossMatcher
         }
         logger?.LogDebug("crossmatch: one-to-one match done {Ms}", Elapsed(clock));
         double expected = FalseMatchRate.Expected(tree, left, radius);
+        logger?.LogDebug("crossmatch: expected false-match rate {Ms}", Elapsed(clock));
         var measured = FalseMatchRate.Measured(tree, left, radius);
+        logger?.LogDebug("crossmatch: measured false-match rate {Ms}", Elapsed(clock));
 
         var fit = outcome?.Fit;
         bool solved = fit is not null;

@@ -73,23 +73,32 @@ public static class MatchedTable
         _ => throw new NotSupportedException($"Column '{c.Name}' of type {c.Type} cannot be joined."),
     };
 
+    /// <summary>The partner's value per left row (parallel over fixed chunks; each row written by index).</summary>
     private static Column<T> Gather<T>(Column<T> c, int[] rows, string name, T empty)
     {
         var v = new T[rows.Length];
-        bool[]? missing = null;
-        for (int i = 0; i < rows.Length; i++)
+        var missing = new bool[rows.Length];
+        var anyMissing = new bool[Chunks.Count(rows.Length)];
+        var values = c.Values;
+        Chunks.For(rows.Length, (chunk, lo, hi) =>
         {
-            int r = rows[i];
-            if (r < 0 || c.IsMissing(r))
+            bool any = false;
+            for (int i = lo; i < hi; i++)
             {
-                v[i] = empty;
-                (missing ??= new bool[rows.Length])[i] = true;
+                int r = rows[i];
+                if (r < 0 || c.IsMissing(r))
+                {
+                    v[i] = empty;
+                    missing[i] = true;
+                    any = true;
+                }
+                else
+                {
+                    v[i] = values[r];
+                }
             }
-            else
-            {
-                v[i] = c.Values[r];
-            }
-        }
-        return new Column<T>(name, v, missing, c.Unit, c.Description);
+            anyMissing[chunk] = any;
+        });
+        return new Column<T>(name, v, Array.IndexOf(anyMissing, true) >= 0 ? missing : null, c.Unit, c.Description);
     }
 }

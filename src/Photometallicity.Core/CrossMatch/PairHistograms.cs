@@ -19,16 +19,15 @@ internal static class PairHistograms
         Chunks.For(queries.Count, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var h = new long[bins];
-            var idx = new List<int>();
-            var d2 = new List<double>();
+            var found = new PairBuffer(64);
             for (int k = lo; k < hi; k++)
             {
                 int i = order[k];
-                idx.Clear();
-                d2.Clear();
-                tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, idx, d2);
-                foreach (double v in d2)
+                found.Clear();
+                tree.WithinRadius(queries.X[i], queries.Y[i], queries.Z[i], chord * chord, found);
+                for (int m = 0; m < found.Count; m++)
                 {
+                    double v = found.Chord2[m];
                     double s = SkySeparation.RadiansFromChord2(v) * RadToArcsec;
                     if (s < maxArcsec) h[Math.Min(bins - 1, (int)(s / width))]++;
                 }
@@ -56,17 +55,28 @@ internal static class PairHistograms
         Chunks.For(order.Length, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
         {
             var h = new long[side * side];
-            var idx = new List<int>();
-            var d2 = new List<double>();
-            for (int k = lo; k < hi; k++)
+            var found = new PairBuffer(64);
+            // The chunk's rows gathered first (independent loads that overlap), then searched in order.
+            int m = hi - lo;
+            var q = new double[5 * m];
+            for (int k = 0; k < m; k++)
             {
-                int i = order[k];
-                idx.Clear();
-                d2.Clear();
-                tree.WithinRadius(left.X[i], left.Y[i], left.Z[i], chord * chord, idx, d2);
-                foreach (int r in idx)
+                int i = order[lo + k];
+                q[5 * k] = left.X[i];
+                q[5 * k + 1] = left.Y[i];
+                q[5 * k + 2] = left.Z[i];
+                q[5 * k + 3] = lXi[i];
+                q[5 * k + 4] = lEta[i];
+            }
+            for (int k = 0; k < m; k++)
+            {
+                found.Clear();
+                tree.WithinRadius(q[5 * k], q[5 * k + 1], q[5 * k + 2], chord * chord, found);
+                double xi = q[5 * k + 3], eta = q[5 * k + 4];
+                for (int j = 0; j < found.Count; j++)
                 {
-                    double dx = rXi[r] - lXi[i], dy = rEta[r] - lEta[i];
+                    int r = found.Right[j];
+                    double dx = rXi[r] - xi, dy = rEta[r] - eta;
                     if (!double.IsFinite(dx) || !double.IsFinite(dy)) continue;
                     int bx = (int)Math.Round(dx / binRad) + half, by = (int)Math.Round(dy / binRad) + half;
                     if (bx >= 0 && bx < side && by >= 0 && by < side) h[by * side + bx]++;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using Photometallicity.Units;
 
 namespace Photometallicity.CrossMatch;
@@ -23,6 +24,7 @@ public static class SkySeparation
         Angle.FromRadians(Radians(ra1Deg, dec1Deg, ra2Deg, dec2Deg));
 
     /// <summary>Separation in radians of two positions given in degrees.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static double Radians(double ra1Deg, double dec1Deg, double ra2Deg, double dec2Deg)
     {
         double dra = (ra2Deg - ra1Deg) * DegToRad;
@@ -36,6 +38,7 @@ public static class SkySeparation
     }
 
     /// <summary>Separation in arcseconds of two positions given in degrees.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static double Arcseconds(double ra1Deg, double dec1Deg, double ra2Deg, double dec2Deg) =>
         Radians(ra1Deg, dec1Deg, ra2Deg, dec2Deg) * RadToArcsec;
 

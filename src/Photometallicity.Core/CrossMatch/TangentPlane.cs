@@ -67,6 +67,7 @@ public sealed class TangentPlane
     }
 
     /// <summary>Standard coordinates (radians) of a unit vector; NaN for points 90 deg or more from the centre.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public (double Xi, double Eta) Project(double x, double y, double z)
     {
         double c = x * _cx + y * _cy + z * _cz;
@@ -75,6 +76,7 @@ public sealed class TangentPlane
     }
 
     /// <summary>The unit vector of standard coordinates (radians).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public (double X, double Y, double Z) Deproject(double xi, double eta)
     {
         double x = _cx + xi * _ex + eta * _nx;

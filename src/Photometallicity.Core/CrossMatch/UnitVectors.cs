@@ -36,12 +36,14 @@ public sealed class UnitVectors
     }
 
     /// <summary>Unit vectors of positions in degrees (computed in parallel over fixed chunks).</summary>
-    public static UnitVectors FromDegrees(ReadOnlySpan<double> raDeg, ReadOnlySpan<double> decDeg)
+    public static UnitVectors FromDegrees(ReadOnlySpan<double> raDeg, ReadOnlySpan<double> decDeg) =>
+        FromDegrees(raDeg.ToArray(), decDeg.ToArray());
+
+    /// <summary>Unit vectors of positions in degrees (the arrays are only read).</summary>
+    public static UnitVectors FromDegrees(double[] ra, double[] dec)
     {
-        int n = raDeg.Length;
-        if (decDeg.Length != n) throw new ArgumentException($"RA has {n} values but Dec has {decDeg.Length}.");
-        var ra = raDeg.ToArray();
-        var dec = decDeg.ToArray();
+        int n = ra.Length;
+        if (dec.Length != n) throw new ArgumentException($"RA has {n} values but Dec has {dec.Length}.");
         var x = new double[n];
         var y = new double[n];
         var z = new double[n];
@@ -60,6 +62,7 @@ public sealed class UnitVectors
     }
 
     /// <summary>(RA in [0, 360), Dec) in degrees of a vector (need not be normalised).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static (double RaDeg, double DecDeg) ToDegrees(double x, double y, double z)
     {
         double ra = Math.Atan2(y, x) * RadToDeg;
