@@ -130,6 +130,12 @@ public static class SummaryBuilder
             ["bootstrap"] = model.EnsembleCoefficients.Length,
             ["colour_range"] = new JsonArray(N(model.Domain.ColourMin), N(model.Domain.ColourMax)),
             ["feh_range"] = new JsonArray(N(model.Domain.FehMin), N(model.Domain.FehMax)),
+            ["clusters"] = r.Standards is { Clusters.Count: > 0 } sp ? new JsonArray(sp.Clusters.Select(c => (JsonNode)new JsonObject
+            {
+                ["name"] = c.Name, ["feh"] = c.Feh, ["feh_err"] = c.FehErr, ["rows"] = c.Rows, ["members"] = c.Members, ["entered"] = c.Entered,
+                ["off_ridge"] = c.OffRidge, ["outside_radius_or_no_colour"] = c.Rows - c.InsideRadius, ["members_without_index"] = c.MembersWithoutIndex,
+                ["ridge_sigma_mag"] = N(c.RidgeSigmaMag), ["source"] = c.Source,
+            }).ToArray()) : null,
             ["rejected"] = cal is null ? null : new JsonArray(cal.Rejected.Select(v => (JsonNode)new JsonObject { ["id"] = v.Id, ["reason"] = v.Reason }).ToArray()),
         };
     }
