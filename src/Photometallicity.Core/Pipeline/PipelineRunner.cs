@@ -45,9 +45,6 @@ public static class PipelineRunner
             SolveOffset = config.CrossMatch.SolveOffset,
             SolveRotationScale = config.CrossMatch.SolveRotationScale,
         }, log);
-        log.LogInformation("cross-match: {Matched} of {Rows} broadband rows matched within {R:F2} arcsec; offset {Dx:+0.000;-0.000}, {Dy:+0.000;-0.000} arcsec from {Pairs} secure pairs; false-match rate expected {Fe:P2}, measured {Fm:P2}",
-            match.Matched, b.RowCount, match.RadiusUsed.Arcseconds, match.Offset.DRaCosDecArcsec, match.Offset.DDecArcsec, match.SecurePairsUsed,
-            match.ExpectedFalseMatchRate, match.MeasuredFalseMatchRate);
         Lap("crossmatch");
 
         var photometry = PhotometryStep.Run(config, inputs, match.RightIndex, log);
@@ -80,8 +77,6 @@ public static class PipelineRunner
                 }, log, p);
             }
             cm = calibration.Model;
-            log.LogInformation("calibration: {Used} standards used, {Rejected} rejected, degree {Degree}, rms {Rms:F3} dex, sigma_int {Sig:F3} mag",
-                cm.StandardsUsed, cm.StandardsRejected, cm.Basis.Degree, cm.RmsDex, cm.SigmaInt);
             Lap("calibration");
         }
         if (scope.StopAfter == PipelineStage.Calibration)
@@ -101,7 +96,6 @@ public static class PipelineRunner
         {
             metallicity = MetallicityAssigner.Run(photometry.Index, cm, metallicityOptions, log, p);
         }
-        log.LogInformation("metallicity: {Counts}", string.Join(", ", metallicity.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
         Lap("metallicity");
         var dwarf = standards is not null ? DwarfBranch.Run(config, standards, photometry, metallicityOptions, log, progress) : null;
         if (dwarf is not null) Lap("dwarf branch");
@@ -116,9 +110,6 @@ public static class PipelineRunner
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
         var membership = MembershipStep.Run(config, inputs, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
         warnings.AddRange(membership.Warnings);
-        log.LogInformation("membership: {Expected:F1} expected members; MDF mean {Mean:F3} +/- {MeanErr:F3}, sigma {Sigma:F3} +/- {SigmaErr:F3} dex",
-            membership.ExpectedMembers, membership.Mdf?.Mean ?? double.NaN, membership.Mdf?.MeanErr ?? double.NaN,
-            membership.Mdf?.Sigma ?? double.NaN, membership.Mdf?.SigmaErr ?? double.NaN);
         Lap("membership");
 
         var request = new ForecastRequest(config.Forecast.Colours, config.Forecast.FehDex, config.Forecast.PrecisionDex, config.Target.DistanceModulus);
