@@ -16,16 +16,7 @@ public sealed class CardelliClaytonMathis1989 : IExtinctionLaw
     /// <summary>x = 0.3 per micron (CCM89, eq. 2 lower limit).</summary>
     public double MaxWavelengthAngstrom => 1.0e4 / 0.3;
 
-    public double AOverAV(double wavelengthAngstrom, double rv)
-    {
-        double x = CcmForm.InverseMicron(wavelengthAngstrom, this);
-        double a, b;
-        if (x < 1.1) CcmForm.Infrared(x, out a, out b);
-        else if (x < 3.3) Optical(x, out a, out b);
-        else if (x < 8.0) CcmForm.Ultraviolet(x, out a, out b);
-        else CcmForm.FarUltraviolet(x, out a, out b);
-        return a + b / rv;
-    }
+    public double AOverAV(double wavelengthAngstrom, double rv) => CcmForm.AOverAV(wavelengthAngstrom, rv, this, Optical);
 
     /// <summary>CCM89 eq. 3a/3b, y = x - 1.82 (Horner form).</summary>
     internal static void Optical(double x, out double a, out double b)
@@ -39,6 +30,21 @@ public sealed class CardelliClaytonMathis1989 : IExtinctionLaw
 /// <summary>The parts of the CCM89 form shared with O'Donnell (1994), which revised only the optical range.</summary>
 internal static class CcmForm
 {
+    /// <summary>a(x) and b(x) of one wavelength range.</summary>
+    public delegate void Part(double x, out double a, out double b);
+
+    /// <summary>a(x) + b(x)/R_V with the law's own optical/near-IR part and CCM89's infrared and ultraviolet parts.</summary>
+    public static double AOverAV(double wavelengthAngstrom, double rv, IExtinctionLaw law, Part optical)
+    {
+        double x = InverseMicron(wavelengthAngstrom, law);
+        double a, b;
+        if (x < 1.1) Infrared(x, out a, out b);
+        else if (x < 3.3) optical(x, out a, out b);
+        else if (x < 8.0) Ultraviolet(x, out a, out b);
+        else FarUltraviolet(x, out a, out b);
+        return a + b / rv;
+    }
+
     public static double InverseMicron(double wavelengthAngstrom, IExtinctionLaw law)
     {
         if (!(wavelengthAngstrom >= law.MinWavelengthAngstrom * (1 - 1e-12) && wavelengthAngstrom <= law.MaxWavelengthAngstrom * (1 + 1e-12)))

@@ -14,16 +14,7 @@ public sealed class ODonnell1994 : IExtinctionLaw
 
     public double MaxWavelengthAngstrom => 1.0e4 / 0.3;
 
-    public double AOverAV(double wavelengthAngstrom, double rv)
-    {
-        double x = CcmForm.InverseMicron(wavelengthAngstrom, this);
-        double a, b;
-        if (x < 1.1) CcmForm.Infrared(x, out a, out b);
-        else if (x < 3.3) Optical(x, out a, out b);
-        else if (x < 8.0) CcmForm.Ultraviolet(x, out a, out b);
-        else CcmForm.FarUltraviolet(x, out a, out b);
-        return a + b / rv;
-    }
+    public double AOverAV(double wavelengthAngstrom, double rv) => CcmForm.AOverAV(wavelengthAngstrom, rv, this, Optical);
 
     /// <summary>O'Donnell (1994): the revised CCM89 eq. 3, y = x - 1.82, 8th order (Horner form).</summary>
     internal static void Optical(double x, out double a, out double b)
