@@ -37,5 +37,6 @@ public static class CliApp
         yield return ForecastCommand.Create(ctx);
         yield return ReportCommand.Create(ctx);
         yield return ConvertCommand.Create(ctx);
+        yield return HealpixCommand.Create(ctx);
     }
 }
