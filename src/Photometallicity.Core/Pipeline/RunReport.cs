@@ -24,7 +24,7 @@ public static class RunReport
         var summary = JsonNode.Parse(File.ReadAllText(Need("summary.json")))!.AsObject();
         var stars = CatalogueIO.Read(Need("stars.csv"), new ReadOptions { TextColumns = new HashSet<string> { "id", "narrow_id", "status" } });
         var model = CalibrationJson.Read(Need("calibration.json"));
-        var residuals = CatalogueIO.Read(Need("calibration_residuals.csv"), new ReadOptions { TextColumns = new HashSet<string> { "id", "status", "reason" } });
+        string residualsPath = Path.Combine(directory, "calibration_residuals.csv");
         string plots = Path.Combine(directory, "plots");
         var figures = new List<FigureEntry>();
         var written = new List<string>();
@@ -35,17 +35,27 @@ public static class RunReport
             written.Add(f.SvgPath);
         }
 
-        var status = residuals.Require("status");
-        var fitted = Enumerable.Range(0, residuals.RowCount).Where(i => status.GetString(i) != "excluded").ToArray();
-        double[] rc = Pick(residuals.RequireDoubles("colour0"), fitted), ri = Pick(residuals.RequireDoubles("index0"), fitted);
-        double[] rf = Pick(residuals.RequireDoubles("feh_spec"), fitted), rd = Pick(residuals.RequireDoubles("residual_dex"), fitted);
-        bool[] acc = fitted.Select(i => status.GetString(i) == "accepted").ToArray();
+        // The standards: present when the calibration was fitted in this run (not when it was read from a file).
+        double[] rc = [], ri = [], rf = [], rd = [];
+        bool[] acc = [];
+        if (File.Exists(residualsPath))
+        {
+            var residuals = CatalogueIO.Read(residualsPath, new ReadOptions { TextColumns = new HashSet<string> { "id", "status", "reason" } });
+            var status = residuals.Require("status");
+            var fitted = Enumerable.Range(0, residuals.RowCount).Where(i => status.GetString(i) != "excluded").ToArray();
+            rc = Pick(residuals.RequireDoubles("colour0"), fitted);
+            ri = Pick(residuals.RequireDoubles("index0"), fitted);
+            rf = Pick(residuals.RequireDoubles("feh_spec"), fitted);
+            rd = Pick(residuals.RequireDoubles("residual_dex"), fitted);
+            acc = fitted.Select(i => status.GetString(i) == "accepted").ToArray();
+        }
         double[] colour = stars.RequireDoubles("colour0"), index = stars.RequireDoubles("index0"), p = stars.RequireDoubles("p_member");
 
         Add(ColourIndexPlot.Write(new ColourIndexPlotData(rc, ri, acc, IsoCurves(model), colour, index), Path.Combine(plots, "colour_index")),
             "Colour-index diagram: the calibration's iso-[Fe/H] curves over its validity domain, the standards (accepted and rejected) and the field stars.", "Calibration");
-        Add(CalibrationResidualsPlot.Write(new CalibrationResidualsPlotData(rc, rf, rd, acc, RmsDex: model.RmsDex), Path.Combine(plots, "calibration_residuals")),
-            "Calibration residuals in [Fe/H] against colour and against spectroscopic [Fe/H]; rejected standards marked.", "Calibration residuals");
+        if (rc.Length > 0)
+            Add(CalibrationResidualsPlot.Write(new CalibrationResidualsPlotData(rc, rf, rd, acc, RmsDex: model.RmsDex), Path.Combine(plots, "calibration_residuals")),
+                "Calibration residuals in [Fe/H] against colour and against spectroscopic [Fe/H]; rejected standards marked.", "Calibration residuals");
 
         var mem = summary["members"]!.AsObject();
         string magBand = (string?)mem["magnitude_band"] ?? "blue";

@@ -107,4 +107,22 @@ public class EndToEndTest(SamplesRunFixture run) : IClassFixture<SamplesRunFixtu
         double auc = (rankSum - n1 * (n1 + 1) / 2.0) / (n1 * (double)n0);
         Assert.True(auc > 0.95, $"AUC {auc.ToString(CultureInfo.InvariantCulture)}");
     }
+
+    [Fact]
+    public void AssignAndMembers_WithTheRunsCalibration_ReproduceTheRun()
+    {
+        using var dir = new TempDir();
+        string cal = Path.Combine(run.Out, "calibration.json");
+        var a = CliRun.Invoke("assign", RepoPaths.Samples("config.json"), "--calibration", cal, "--out", dir.File("assign"));
+        Assert.True(a.ExitCode == 0, a.Error);
+        var m = CliRun.Invoke("members", RepoPaths.Samples("config.json"), "--calibration", cal, "--out", dir.File("members"));
+        Assert.True(m.ExitCode == 0, m.Error);
+        var ran = Stars(run.Out);
+        var assigned = Stars(dir.File("assign"));
+        foreach (var col in new[] { "feh", "feh_lo", "feh_hi" })
+            Assert.Equal(ran.RequireDoubles(col), assigned.RequireDoubles(col));
+        Assert.All(assigned.RequireDoubles("p_member"), p => Assert.True(double.IsNaN(p)));
+        Assert.Equal(File.ReadAllBytes(Path.Combine(run.Out, "stars.csv")), File.ReadAllBytes(dir.File("members/stars.csv")));
+        Assert.True(File.Exists(dir.File("members/summary.html")));
+    }
 }
