@@ -39,6 +39,7 @@ public static class CrossMatcher
         string offsetReason;
         int iterations = 0;
         UnitVectors right = rightRaw;
+        OffsetSolver.Correction? correction = null;
         SkyKdTree? rawTree = null;
 
         bool canSolve = options.SolveOffset && plane is not null && plane.RadiusDeg <= MaxFieldRadiusDeg && nLeft > 0 && nRight > 0;
@@ -88,14 +89,17 @@ public static class CrossMatcher
             {
                 transform = outcome.Transform;
                 logger?.LogDebug("crossmatch: iterations {Ms}", Elapsed(clock));
-                right = solver.CorrectRight(transform, rightRaw);
+                correction = solver.CorrectionOf(transform, rightRaw);
             }
         }
 
         logger?.LogDebug("crossmatch: offset iterations done {Ms}", Elapsed(clock));
         // The corrected catalogue is the observed one moved by the (small) offset: the observed tree is re-used with
         // widened searches, which finds exactly the pairs a new tree would.
-        var tree = rawTree is null ? SkyKdTree.Build(right) : ReferenceEquals(right, rightRaw) ? rawTree : rawTree.WithMovedPoints(right);
+        // Each corrected position is computed where it is needed (in the tree, and for the matched rows below).
+        var tree = rawTree is null ? SkyKdTree.Build(right) : correction is { } cr ? rawTree.WithMovedPoints(cr) : rawTree;
+        bool corrected = correction.HasValue;
+        var corr = correction.GetValueOrDefault();
         logger?.LogDebug("crossmatch: tree of the corrected catalogue {Ms}", Elapsed(clock));
         if (options.AutoRadius && outcome is null)
         {
@@ -126,7 +130,8 @@ public static class CrossMatcher
                     sep[i] = double.NaN;
                     continue;
                 }
-                var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
+                var (px, py, pz) = corrected ? corr.Map(r) : (right.X[r], right.Y[r], right.Z[r]);
+                var (ra, dec) = UnitVectors.ToDegrees(px, py, pz);
                 sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
             }
         });
