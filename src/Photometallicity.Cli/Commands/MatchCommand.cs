@@ -53,8 +53,20 @@ internal static class MatchCommand
             };
             var log = new WarningsOnly(ctx.Logger("match"));
             var clock = System.Diagnostics.Stopwatch.StartNew();
-            var left = CatalogueIO.Read(leftPath);
-            var right = CatalogueIO.Read(rightPath);
+            // The two tables are read at the same time (each reader works alone on its own file); a problem in
+            // LEFT is still the one reported first.
+            var rightRead = Task.Run(() => CatalogueIO.Read(rightPath));
+            Table left;
+            try
+            {
+                left = CatalogueIO.Read(leftPath);
+            }
+            catch
+            {
+                rightRead.ContinueWith(t => _ = t.Exception, TaskScheduler.Default);
+                throw;
+            }
+            var right = rightRead.GetAwaiter().GetResult();
             log.LogDebug("match: read {Ms} ms", clock.ElapsedMilliseconds);
             var (lra, ldec) = Positions(left, pr.GetValue(leftRa)!, pr.GetValue(leftDec)!);
             var (rra, rdec) = Positions(right, pr.GetValue(rightRa)!, pr.GetValue(rightDec)!);
