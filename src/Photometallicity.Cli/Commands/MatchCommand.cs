@@ -1,4 +1,5 @@
 using System.CommandLine;
+using Microsoft.Extensions.Logging;
 using System.Globalization;
 using System.Text;
 using Photometallicity.Catalogues;
@@ -52,17 +53,29 @@ internal static class MatchCommand
             };
             var log = new WarningsOnly(ctx.Logger("match"));
             var clock = System.Diagnostics.Stopwatch.StartNew();
-            var left = CatalogueIO.Read(leftPath);
-            var right = CatalogueIO.Read(rightPath);
-            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: read {Ms} ms", clock.ElapsedMilliseconds);
+            // The two tables are read at the same time (each reader works alone on its own file); a problem in
+            // LEFT is still the one reported first.
+            var rightRead = Task.Run(() => CatalogueIO.Read(rightPath));
+            Table left;
+            try
+            {
+                left = CatalogueIO.Read(leftPath);
+            }
+            catch
+            {
+                rightRead.ContinueWith(t => _ = t.Exception, TaskScheduler.Default);
+                throw;
+            }
+            var right = rightRead.GetAwaiter().GetResult();
+            log.LogDebug("match: read {Ms} ms", clock.ElapsedMilliseconds);
             var (lra, ldec) = Positions(left, pr.GetValue(leftRa)!, pr.GetValue(leftDec)!);
             var (rra, rdec) = Positions(right, pr.GetValue(rightRa)!, pr.GetValue(rightDec)!);
-            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: positions checked {Ms} ms", clock.ElapsedMilliseconds);
+            log.LogDebug("match: positions checked {Ms} ms", clock.ElapsedMilliseconds);
             // The stage's own information lines repeat the summary below; keep only its warnings.
             var result = CrossMatcher.Run(lra, ldec, rra, rdec, options, log);
-            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: matched {Ms} ms", clock.ElapsedMilliseconds);
+            log.LogDebug("match: matched {Ms} ms", clock.ElapsedMilliseconds);
             var table = MatchedTable.Join(left, right, result, pr.GetValue(prefix)!);
-            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: joined {Ms} ms", clock.ElapsedMilliseconds);
+            log.LogDebug("match: joined {Ms} ms", clock.ElapsedMilliseconds);
             if (outPath is null)
             {
                 using var ms = new MemoryStream();
@@ -73,7 +86,7 @@ internal static class MatchCommand
             {
                 CatalogueIO.Write(table, outPath);
             }
-            Microsoft.Extensions.Logging.LoggerExtensions.LogDebug(log, "match: written {Ms} ms", clock.ElapsedMilliseconds);
+            log.LogDebug("match: written {Ms} ms", clock.ElapsedMilliseconds);
             WriteSummary(ctx.Error, result, outPath);
             return 0;
         }));

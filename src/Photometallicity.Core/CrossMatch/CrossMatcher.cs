@@ -39,6 +39,7 @@ public static class CrossMatcher
         string offsetReason;
         int iterations = 0;
         UnitVectors right = rightRaw;
+        OffsetSolver.Correction? correction = null;
         SkyKdTree? rawTree = null;
 
         bool canSolve = options.SolveOffset && plane is not null && plane.RadiusDeg <= MaxFieldRadiusDeg && nLeft > 0 && nRight > 0;
@@ -47,21 +48,25 @@ public static class CrossMatcher
         else if (!canSolve) offsetReason = $"offset not solved: the left catalogue spans more than {MaxFieldRadiusDeg} deg from its centre, too wide for one tangent plane";
         else offsetReason = "";
 
-        logger?.LogDebug("crossmatch: unit vectors {Ms}", Elapsed(clock));
+        Phase(logger, "unit vectors", clock);
         if (canSolve)
         {
+            // The left visiting order (a sequential sort) is made while the right tree is built; both only read
+            // their inputs, so the overlap changes nothing but the wall time.
+            var leftOrder = Task.Run(() => left.Order);
             rawTree = SkyKdTree.Build(rightRaw);
-            logger?.LogDebug("crossmatch: tree of the right catalogue {Ms}", Elapsed(clock));
+            leftOrder.Wait();
+            Phase(logger, "tree of the right catalogue", clock);
             var (lXi, lEta) = plane!.ProjectAll(left);
             var (rXi, rEta) = plane.ProjectAll(rightRaw);
-            logger?.LogDebug("crossmatch: projections {Ms}", Elapsed(clock));
+            Phase(logger, "projections", clock);
             var solver = new OffsetSolver(plane, rawTree, left, lXi, lEta, rXi, rEta);
-            logger?.LogDebug("crossmatch: spatial order {Ms}", Elapsed(clock));
+            Phase(logger, "spatial order", clock);
             double search = (options.OffsetSearchRadius ?? Angle.FromArcseconds(Math.Max(3.0 * radius.Arcseconds, 3.0))).Radians;
             var start = solver.InitialEstimate(search);
             logger?.LogDebug("crossmatch: first offset estimate {Est} from the pair-offset histogram within {Search:0.##} arcsec",
                 start is { } s0 ? $"{s0.DXi * RadToArcsec:+0.000;-0.000}, {s0.DEta * RadToArcsec:+0.000;-0.000} arcsec" : "none (no peak)", search * RadToArcsec);
-            logger?.LogDebug("crossmatch: first estimate done {Ms}", Elapsed(clock));
+            Phase(logger, "first estimate done", clock);
             double fieldRad = plane.RadiusDeg * Math.PI / 180.0;
             outcome = solver.Iterate(start ?? AstrometricTransform.Identity, radius.Radians, options.MaxIterations,
                 options.SolveRotationScale, options.ConvergenceTolerance.Radians, options.MinSecurePairs, fieldRad);
@@ -83,16 +88,19 @@ public static class CrossMatcher
             else
             {
                 transform = outcome.Transform;
-                logger?.LogDebug("crossmatch: iterations {Ms}", Elapsed(clock));
-                right = solver.CorrectRight(transform, rightRaw);
+                Phase(logger, "iterations", clock);
+                correction = solver.CorrectionOf(transform, rightRaw);
             }
         }
 
-        logger?.LogDebug("crossmatch: offset iterations done {Ms}", Elapsed(clock));
+        Phase(logger, "offset iterations done", clock);
         // The corrected catalogue is the observed one moved by the (small) offset: the observed tree is re-used with
         // widened searches, which finds exactly the pairs a new tree would.
-        var tree = rawTree is null ? SkyKdTree.Build(right) : ReferenceEquals(right, rightRaw) ? rawTree : rawTree.WithMovedPoints(right);
-        logger?.LogDebug("crossmatch: tree of the corrected catalogue {Ms}", Elapsed(clock));
+        // Each corrected position is computed where it is needed (in the tree, and for the matched rows below).
+        var tree = rawTree is null ? SkyKdTree.Build(right) : correction is { } cr ? rawTree.WithMovedPoints(cr) : rawTree;
+        bool corrected = correction.HasValue;
+        var corr = correction.GetValueOrDefault();
+        Phase(logger, "tree of the corrected catalogue", clock);
         if (options.AutoRadius && outcome is null)
         {
             var choice = ChooseRadius(tree, SampleOf(left), radius);
@@ -102,9 +110,13 @@ public static class CrossMatcher
 
         double chord = SkySeparation.Chord(radius);
         var pairs = CandidatePairs.Find(tree, left, chord * chord);
-        logger?.LogDebug("crossmatch: candidate pairs {Ms}", Elapsed(clock));
+        // The false-match tests read only the tree and the left positions: they run alongside the (sequential)
+        // one-to-one assignment.
+        var finalRadius = radius;
+        var falseMatch = Task.Run(() => (FalseMatchRate.Expected(tree, left, finalRadius), FalseMatchRate.Measured(tree, left, finalRadius)));
+        Phase(logger, "candidate pairs", clock);
         var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
-        logger?.LogDebug("crossmatch: assignment {Ms}", Elapsed(clock));
+        Phase(logger, "assignment", clock);
         var sep = new double[nLeft];
         var blend = new bool[nLeft];
         Chunks.For(nLeft, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
@@ -118,7 +130,8 @@ public static class CrossMatcher
                     sep[i] = double.NaN;
                     continue;
                 }
-                var (ra, dec) = UnitVectors.ToDegrees(right.X[r], right.Y[r], right.Z[r]);
+                var (px, py, pz) = corrected ? corr.Map(r) : (right.X[r], right.Y[r], right.Z[r]);
+                var (ra, dec) = UnitVectors.ToDegrees(px, py, pz);
                 sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
             }
         });
@@ -133,11 +146,9 @@ public static class CrossMatcher
             matched++;
             if (blend[i]) blends++;
         }
-        logger?.LogDebug("crossmatch: one-to-one match done {Ms}", Elapsed(clock));
-        double expected = FalseMatchRate.Expected(tree, left, radius);
-        logger?.LogDebug("crossmatch: expected false-match rate {Ms}", Elapsed(clock));
-        var measured = FalseMatchRate.Measured(tree, left, radius);
-        logger?.LogDebug("crossmatch: measured false-match rate {Ms}", Elapsed(clock));
+        Phase(logger, "one-to-one match done", clock);
+        var (expected, measured) = falseMatch.GetAwaiter().GetResult();
+        Phase(logger, "false-match rates", clock);
 
         var fit = outcome?.Fit;
         bool solved = fit is not null;
@@ -187,8 +198,13 @@ public static class CrossMatcher
         return result;
     }
 
-    private static string Elapsed(Stopwatch clock) =>
-        $"{clock.ElapsedMilliseconds} ms wall, {System.Diagnostics.Process.GetCurrentProcess().TotalProcessorTime.TotalMilliseconds:0} ms process CPU";
+    /// <summary>A debug line with the time since the stage started (wall, and the whole process's CPU).</summary>
+    private static void Phase(ILogger? logger, string what, Stopwatch clock)
+    {
+        if (logger is null || !logger.IsEnabled(LogLevel.Debug)) return;
+        logger.LogDebug("crossmatch: {What} {Ms} ms wall, {Cpu:0} ms process CPU", what, clock.ElapsedMilliseconds,
+            Process.GetCurrentProcess().TotalProcessorTime.TotalMilliseconds);
+    }
 
     /// <summary>At most 200 000 of the vectors, evenly spread along their spatial order.</summary>
     private static UnitVectors SampleOf(UnitVectors v)

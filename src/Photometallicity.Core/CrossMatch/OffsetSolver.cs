@@ -159,28 +159,20 @@ internal sealed class OffsetSolver
         return new UnitVectors(x, y, z).WithOrder(order);
     }
 
-    /// <summary>The right catalogue corrected into the left frame (rows the plane cannot hold are left as observed).</summary>
-    public UnitVectors CorrectRight(AstrometricTransform t, UnitVectors rightRaw)
+    /// <summary>The right catalogue corrected into the left frame by the inverse of t, one row at a time.</summary>
+    public Correction CorrectionOf(AstrometricTransform t, UnitVectors rightRaw) => new(_plane, t, _rXi, _rEta, rightRaw);
+
+    /// <summary>A right row corrected into the left frame (rows the plane cannot hold are left as observed).</summary>
+    internal readonly struct Correction(TangentPlane plane, AstrometricTransform t, double[] rXi, double[] rEta, UnitVectors raw) : SkyKdTree.IPointMap
     {
-        int n = _rightCount;
-        var x = new double[n];
-        var y = new double[n];
-        var z = new double[n];
-        Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
+        public int Count => rXi.Length;
+
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        public (double X, double Y, double Z) Map(int i)
         {
-            for (int i = lo; i < hi; i++)
-            {
-                if (!double.IsFinite(_rXi[i]))
-                {
-                    x[i] = rightRaw.X[i];
-                    y[i] = rightRaw.Y[i];
-                    z[i] = rightRaw.Z[i];
-                    continue;
-                }
-                var (xi, eta) = t.Inverse(_rXi[i], _rEta[i]);
-                (x[i], y[i], z[i]) = _plane.Deproject(xi, eta);
-            }
-        });
-        return new UnitVectors(x, y, z);
+            if (!double.IsFinite(rXi[i])) return (raw.X[i], raw.Y[i], raw.Z[i]);
+            var (xi, eta) = t.Inverse(rXi[i], rEta[i]);
+            return plane.Deproject(xi, eta);
+        }
     }
 }

@@ -113,15 +113,46 @@ public sealed class SkyKdTree
     /// split; the rest, at most the slack, widens every pruning test. Builds a fresh tree when the points moved
     /// too unevenly for that to pay.
     /// </summary>
-    public SkyKdTree WithMovedPoints(UnitVectors moved)
+    public SkyKdTree WithMovedPoints(UnitVectors moved) => WithMovedPoints(new Stored(moved));
+
+    /// <summary>Where point i (original index) has moved to.</summary>
+    internal interface IPointMap
+    {
+        int Count { get; }
+        (double X, double Y, double Z) Map(int i);
+    }
+
+    private readonly struct Stored(UnitVectors v) : IPointMap
+    {
+        public int Count => v.Count;
+
+        [MethodImpl(MethodImplOptions.AggressiveInlining)]
+        public (double X, double Y, double Z) Map(int i) => (v.X[i], v.Y[i], v.Z[i]);
+    }
+
+    /// <summary>All moved points as vectors (for a fresh build).</summary>
+    private static UnitVectors Materialise<TMap>(TMap map) where TMap : struct, IPointMap
+    {
+        int n = map.Count;
+        var x = new double[n];
+        var y = new double[n];
+        var z = new double[n];
+        Chunks.For(n, (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++) (x[i], y[i], z[i]) = map.Map(i);
+        });
+        return new UnitVectors(x, y, z);
+    }
+
+    /// <summary>As <see cref="WithMovedPoints(UnitVectors)"/>, with each moved point computed where it is needed.</summary>
+    internal SkyKdTree WithMovedPoints<TMap>(TMap moved) where TMap : struct, IPointMap
     {
         if (moved.Count != Count) throw new ArgumentException($"The moved points number {moved.Count}, the tree holds {Count}.");
-        if (_slack != 0.0) return Build(moved);
+        if (_slack != 0.0) return Build(Materialise(moved));
         int n = Count;
         double[] nx = new double[n], ny = new double[n], nz = new double[n];
         double[] ox = _x, oy = _y, oz = _z;
         int[] index = _index;
-        double[] mx = moved.X, my = moved.Y, mz = moved.Z;
         int chunks = Chunks.Count(n);
         var range = new double[chunks * 6];
         Chunks.For(n, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (c, lo, hi) =>
@@ -131,8 +162,7 @@ public sealed class SkyKdTree
             bool bad = false;
             for (int k = lo; k < hi; k++)
             {
-                int i = index[k];
-                double x = mx[i], y = my[i], z = mz[i];
+                var (x, y, z) = moved.Map(index[k]);
                 nx[k] = x;
                 ny[k] = y;
                 nz[k] = z;
@@ -160,7 +190,7 @@ public sealed class SkyKdTree
         for (int c = 0; c < chunks; c++)
             for (int d = 0; d < 3; d++)
             {
-                if (double.IsNaN(range[6 * c + d])) return Build(moved);
+                if (double.IsNaN(range[6 * c + d])) return Build(Materialise(moved));
                 lo3[d] = Math.Min(lo3[d], range[6 * c + d]);
                 hi3[d] = Math.Max(hi3[d], range[6 * c + 3 + d]);
             }
@@ -171,7 +201,7 @@ public sealed class SkyKdTree
             shift[d] = n == 0 ? 0.0 : 0.5 * (lo3[d] + hi3[d]);
             if (n > 0) slack = Math.Max(slack, Math.Max(hi3[d] - shift[d], shift[d] - lo3[d]));
         }
-        if (!(slack <= MaxReuseSlack)) return Build(moved);
+        if (!(slack <= MaxReuseSlack)) return Build(Materialise(moved));
         var nodes = new Node[_nodes.Length];
         for (int node = 0; node < nodes.Length; node++)
             nodes[node] = new Node { Split = _nodes[node].Split + shift[_nodes[node].Dim], Dim = _nodes[node].Dim };
@@ -206,6 +236,9 @@ public sealed class SkyKdTree
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static double Coord(ref Pt p, int d) => Unsafe.Add(ref p.X, d);
 
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static double Median3(double a, double b, double e) => a < b ? (b < e ? b : a < e ? e : a) : (a < e ? a : b < e ? e : b);
+
     /// <summary>Quickselect (Wirth's variant of Hoare's FIND): puts the k-th smallest of axis d over [lo..hi] at k.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void Select(int d, int lo, int hi, int k)
@@ -214,8 +247,20 @@ public sealed class SkyKdTree
         while (hi > lo)
         {
             int m = lo + (hi - lo) / 2;
-            double a = Coord(ref c[lo], d), b = Coord(ref c[m], d), e = Coord(ref c[hi], d);
-            double pivot = a < b ? (b < e ? b : a < e ? e : a) : (a < e ? a : b < e ? e : b);
+            double pivot;
+            if (hi - lo > 1024)
+            {
+                // Large ranges: Tukey's ninther (median of three medians of three; Tukey 1978, in Contributions to
+                // Survey Sampling and Applied Statistics, 335; recalled from memory) for a pivot nearer the median.
+                int s = (hi - lo) / 8;
+                pivot = Median3(Median3(Coord(ref c[lo], d), Coord(ref c[lo + s], d), Coord(ref c[lo + 2 * s], d)),
+                    Median3(Coord(ref c[m - s], d), Coord(ref c[m], d), Coord(ref c[m + s], d)),
+                    Median3(Coord(ref c[hi - 2 * s], d), Coord(ref c[hi - s], d), Coord(ref c[hi], d)));
+            }
+            else
+            {
+                pivot = Median3(Coord(ref c[lo], d), Coord(ref c[m], d), Coord(ref c[hi], d));
+            }
             int i = lo, j = hi;
             do
             {
