@@ -31,6 +31,11 @@ internal static class FitsNullValue
                 'J' => (int.MinValue, int.MaxValue, (long)int.MinValue),
                 _ => (long.MinValue, long.MaxValue, long.MinValue),
             };
+            // Usually no row holds the preferred value: check that with one scan before building the set of used values.
+            bool preferredUsed = false;
+            for (int i = 0; i < column.Length && !preferredUsed; i++)
+                preferredUsed = !column.IsMissing(i) && RawAt(column, i) == preferred;
+            if (!preferredUsed) return (code, width, preferred);
             var used = new HashSet<long>();
             for (int i = 0; i < column.Length; i++) if (!column.IsMissing(i)) used.Add(RawAt(column, i));
             if (!used.Contains(preferred)) return (code, width, preferred);
