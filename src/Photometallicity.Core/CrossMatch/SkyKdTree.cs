@@ -347,6 +347,33 @@ public sealed class SkyKdTree
     internal void WithinRadius(double qx, double qy, double qz, double r2, PairBuffer found)
     {
         if (Count == 0) return;
+        var collect = new Collect(found);
+        Visit(qx, qy, qz, r2, ref collect);
+    }
+
+    /// <summary>What a range search does with each leaf it reaches (a struct, so the traversal is specialised per action).</summary>
+    private interface ILeafAction
+    {
+        void Leaf(SkyKdTree tree, int lo, int hi, double qx, double qy, double qz, double r2);
+    }
+
+    private readonly struct Collect(PairBuffer found) : ILeafAction
+    {
+        public void Leaf(SkyKdTree tree, int lo, int hi, double qx, double qy, double qz, double r2) => tree.ScanLeaf(lo, hi, qx, qy, qz, r2, found);
+    }
+
+    private struct Counter : ILeafAction
+    {
+        public int N;
+
+        public void Leaf(SkyKdTree tree, int lo, int hi, double qx, double qy, double qz, double r2) => N += tree.CountLeaf(lo, hi, qx, qy, qz, r2);
+    }
+
+    /// <summary>Visits, in a fixed order, every leaf whose box may hold points within squared chord r2 of q.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private void Visit<TAction>(double qx, double qy, double qz, double r2, ref TAction action) where TAction : struct, ILeafAction
+    {
+        if (Count == 0) return;
         Span<int> stack = stackalloc int[3 * StackDepth];
         int sp = 0;
         int node = 0, lo = 0, hi = Count;
@@ -387,7 +414,7 @@ public sealed class SkyKdTree
                     lo = hi;
                 }
             }
-            ScanLeaf(lo, hi, qx, qy, qz, r2, found);
+            action.Leaf(this, lo, hi, qx, qy, qz, r2);
             if (sp == 0) return;
             sp -= 3;
             node = stack[sp];
@@ -397,57 +424,12 @@ public sealed class SkyKdTree
     }
 
     /// <summary>The number of points with squared chord at most <paramref name="maxChord2"/>.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public int CountWithin(double qx, double qy, double qz, double maxChord2)
     {
         if (Count == 0) return 0;
-        Span<int> stack = stackalloc int[3 * StackDepth];
-        int sp = 0, n = 0;
-        int node = 0, lo = 0, hi = Count;
-        var nodes = _nodes;
-        Span<double> q = stackalloc double[3];
-        q[0] = qx;
-        q[1] = qy;
-        q[2] = qz;
-        double slack = _slack, r2 = maxChord2;
-        while (true)
-        {
-            while (hi - lo > LeafSize)
-            {
-                int mid = lo + (hi - lo) / 2;
-                ref Node nd = ref nodes[node];
-                double diff = q[nd.Dim] - nd.Split;
-                double dl = diff - slack, dr = -diff - slack;
-                bool goL = dl < 0 || dl * dl <= r2, goR = dr < 0 || dr * dr <= r2;
-                if (goL)
-                {
-                    if (goR)
-                    {
-                        stack[sp] = 2 * node + 2;
-                        stack[sp + 1] = mid;
-                        stack[sp + 2] = hi;
-                        sp += 3;
-                    }
-                    node = 2 * node + 1;
-                    hi = mid;
-                }
-                else if (goR)
-                {
-                    node = 2 * node + 2;
-                    lo = mid;
-                }
-                else
-                {
-                    lo = hi;
-                }
-            }
-            n += CountLeaf(lo, hi, qx, qy, qz, r2);
-            if (sp == 0) return n;
-            sp -= 3;
-            node = stack[sp];
-            lo = stack[sp + 1];
-            hi = stack[sp + 2];
-        }
+        var counter = new Counter();
+        Visit(qx, qy, qz, maxChord2, ref counter);
+        return counter.N;
     }
 
     /// <summary>True when at least one point lies within squared chord <paramref name="maxChord2"/>.</summary>
