@@ -25,6 +25,18 @@ public sealed class CalibrationStandards
     /// <summary>Name of each group, indexed by group id (Group[i] indexes this array when &gt;= 0).</summary>
     public required string[] GroupName { get; init; }
 
+    /// <summary>The standards at the given rows, in that order (group names kept).</summary>
+    public CalibrationStandards Select(IReadOnlyList<int> rows)
+    {
+        T[] Pick<T>(T[] a) => rows.Select(i => a[i]).ToArray();
+        return new CalibrationStandards
+        {
+            Id = Pick(Id), Colour0 = Pick(Colour0), Index0 = Pick(Index0), VarColour = Pick(VarColour), VarIndex = Pick(VarIndex),
+            CovIndexColour = Pick(CovIndexColour), Feh = Pick(Feh), FehErr = Pick(FehErr), LogG = LogG is null ? null : Pick(LogG),
+            Group = Pick(Group), GroupName = GroupName,
+        };
+    }
+
     public int Count => Id.Length;
 
     /// <summary>

@@ -31,20 +31,7 @@ public static class DwarfBranch
             log.LogInformation("no dwarf calibration: {N} standards with log g above {Limit} ({Min} needed)", rows.Length, limit, MinStandards);
             return null;
         }
-        var dwarfs = new CalibrationStandards
-        {
-            Id = rows.Select(i => s.Id[i]).ToArray(),
-            Colour0 = rows.Select(i => s.Colour0[i]).ToArray(),
-            Index0 = rows.Select(i => s.Index0[i]).ToArray(),
-            VarColour = rows.Select(i => s.VarColour[i]).ToArray(),
-            VarIndex = rows.Select(i => s.VarIndex[i]).ToArray(),
-            CovIndexColour = rows.Select(i => s.CovIndexColour[i]).ToArray(),
-            Feh = rows.Select(i => s.Feh[i]).ToArray(),
-            FehErr = rows.Select(i => s.FehErr[i]).ToArray(),
-            LogG = rows.Select(i => logg[i]).ToArray(),
-            Group = rows.Select(i => s.Group[i]).ToArray(),
-            GroupName = s.GroupName,
-        };
+        var dwarfs = s.Select(rows);
         CalibrationResult fit;
         using (var p = progress?.For("dwarf calibration bootstrap"))
         {
