@@ -28,6 +28,9 @@ public sealed record PipelineResult
     public MembershipResult? Membership { get; init; }
     public NarrowCompleteness? Completeness { get; init; }
     public ForecastProducts? Forecast { get; init; }
+
+    /// <summary>The calibration's share of the error of the members' mean [Fe/H] (dex), see <see cref="MdfCalibrationError"/>.</summary>
+    public double MdfCalibrationErrorDex { get; init; } = double.NaN;
     public ForecastRequest? ForecastRequest { get; init; }
     public StarRows? Stars { get; init; }
     public required IReadOnlyList<string> Warnings { get; init; }

@@ -124,6 +124,10 @@ public static class PipelineRunner
         }
         else warnings.Add("no forecast: a photometric error model could not be fitted for every band");
 
+        double mdfCalErr = MdfCalibrationError.Of(cm, photometry.Index.Colour0, metallicity, membership.PMember);
+        if (membership.Mdf is { } mdfFit)
+            log.LogInformation("membership: mean [Fe/H] {Mean:F3} +/- {Stat:F3} (statistical) +/- {Cal:F3} (calibration) dex", mdfFit.Mean, mdfFit.MeanErr, mdfCalErr);
+
         var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
         var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember, dwarf?.Metallicity);
         foreach (var w in warnings) log.LogWarning("{Warning}", w);
@@ -143,6 +147,7 @@ public static class PipelineRunner
             Completeness = completeness,
             Forecast = forecast,
             ForecastRequest = request,
+            MdfCalibrationErrorDex = mdfCalErr,
             Stars = stars,
             Warnings = warnings,
             Timings = timings,

@@ -46,12 +46,13 @@ public static class SummaryBuilder
         if (r.Membership is { } mem)
         {
             summary["members"] = Members(mem, c.Membership.MagnitudeBand);
-            summary["mdf"] = Mdf(mem.Mdf);
+            double cal = r.MdfCalibrationErrorDex;
+            summary["mdf"] = Mdf(mem.Mdf, cal);
             summary["mdf_modes"] = new JsonObject
             {
                 ["configured"] = c.Membership.UseMetallicity ? "with_metallicity_term" : "without_metallicity_term",
-                ["with_metallicity_term"] = Mdf(mem.MdfWithMetallicityTerm),
-                ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm),
+                ["with_metallicity_term"] = Mdf(mem.MdfWithMetallicityTerm, cal),
+                ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm, cal),
             };
         }
         if (r.Forecast is { } fc && r.ForecastRequest is { } fr) summary["forecast"] = ForecastStep.Summary(fc, fr);
@@ -168,10 +169,16 @@ public static class SummaryBuilder
         };
     }
 
-    public static JsonNode? Mdf(MdfFit? f) => f is null ? null : new JsonObject
+    /// <summary>
+    /// An MDF fit; mean_err combines in quadrature the statistical error (likelihood curvature) and the calibration's
+    /// common error (both also given apart).
+    /// </summary>
+    public static JsonNode? Mdf(MdfFit? f, double calibrationErr) => f is null ? null : new JsonObject
     {
         ["mean"] = N(f.Mean),
-        ["mean_err"] = N(f.MeanErr),
+        ["mean_err"] = N(double.IsFinite(calibrationErr) ? Math.Sqrt(f.MeanErr * f.MeanErr + calibrationErr * calibrationErr) : f.MeanErr),
+        ["mean_err_statistical"] = N(f.MeanErr),
+        ["mean_err_calibration"] = N(calibrationErr),
         ["sigma"] = N(f.Sigma),
         ["sigma_err"] = N(f.SigmaErr),
         ["weight_sum"] = N(f.WeightSum),

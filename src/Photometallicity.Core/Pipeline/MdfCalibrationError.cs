@@ -1,0 +1,47 @@
+using Photometallicity.Calibration;
+using Photometallicity.Metallicity;
+
+namespace Photometallicity.Pipeline;
+
+/// <summary>
+/// The calibration's share of the error of the members' mean [Fe/H]. Each star's posterior marginalises over the
+/// bootstrap ensemble, but the calibration error is common to all stars, so it does not average down with their number
+/// as the statistical error does. For each ensemble member m and each star i (with an [Fe/H], weighted by p_member) the
+/// shift dF = (f_best - f_m) / (df_m/dF) at the star's colour and median [Fe/H] is the change of [Fe/H] that member would
+/// make (first order, common practice); the standard deviation over the ensemble of the weighted mean shift is the
+/// calibration error of the mean. Uses at most <see cref="MaxStars"/> stars, taken at even steps (deterministic).
+/// </summary>
+public static class MdfCalibrationError
+{
+    public const int MaxStars = 4000;
+
+    public static double Of(CalibrationModel model, double[] colour0, MetallicityResult feh, double[] pMember)
+    {
+        var rows = Enumerable.Range(0, colour0.Length)
+            .Where(i => double.IsFinite(feh.Feh[i]) && double.IsFinite(pMember[i]) && pMember[i] > 0 && double.IsFinite(colour0[i])).ToArray();
+        var ens = model.EnsembleCoefficients;
+        if (rows.Length == 0 || ens.Length < 2) return double.NaN;
+        int step = Math.Max(1, rows.Length / MaxStars);
+        var pick = rows.Where((_, k) => k % step == 0).ToArray();
+        var basis = model.Basis;
+        var shifts = new double[ens.Length];
+        for (int m = 0; m < ens.Length; m++)
+        {
+            double sw = 0, s = 0;
+            foreach (int i in pick)
+            {
+                double c = colour0[i], f = feh.Feh[i];
+                double slope = basis.Gradient(ens[m], c, f).DFeh;
+                if (!(Math.Abs(slope) > 1e-6)) continue;
+                double df = (basis.Value(model.Coefficients, c, f) - basis.Value(ens[m], c, f)) / slope;
+                s += pMember[i] * df;
+                sw += pMember[i];
+            }
+            shifts[m] = sw > 0 ? s / sw : double.NaN;
+        }
+        var ok = shifts.Where(double.IsFinite).ToArray();
+        if (ok.Length < 2) return double.NaN;
+        double mean = ok.Average();
+        return Math.Sqrt(ok.Sum(x => (x - mean) * (x - mean)) / (ok.Length - 1));
+    }
+}
