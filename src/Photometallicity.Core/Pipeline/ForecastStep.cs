@@ -46,12 +46,15 @@ public static class ForecastStep
         return [a, b, c, fig.PngPath, fig.SvgPath];
     }
 
-    /// <summary>The forecast figure from forecast.csv: sigma[Fe/H] against blue magnitude, one curve per colour.</summary>
+    /// <summary>The forecast figure from forecast.csv: sigma[Fe/H] against blue magnitude, one curve per colour (status Ok rows).</summary>
     public static FigureFiles WriteFigure(string forecastCsv, double precisionDex, string pathWithoutExtension)
     {
         var t = CatalogueIO.Read(forecastCsv, new ReadOptions { TextColumns = new HashSet<string> { "status" } });
         double[] mag = t.RequireDoubles("blue_mag"), col = t.RequireDoubles("colour0"), feh = t.RequireDoubles("feh"), sig = t.RequireDoubles("sigma_feh");
-        var curves = Enumerable.Range(0, t.RowCount).GroupBy(i => col[i]).OrderBy(g => g.Key).Select(g => new ForecastCurve(
+        // Only model stars whose posterior lies well inside the calibration's domain: where it is cut by the domain's
+        // edge its width says more about the domain than about the photometry.
+        var status = t.Require("status");
+        var curves = Enumerable.Range(0, t.RowCount).Where(i => status.GetString(i) == "Ok").GroupBy(i => col[i]).OrderBy(g => g.Key).Select(g => new ForecastCurve(
             $"C0 = {g.Key.ToString("F2", CultureInfo.InvariantCulture)} mag, [Fe/H] = {feh[g.First()].ToString("F1", CultureInfo.InvariantCulture)}",
             g.Select(i => mag[i]).ToArray(), g.Select(i => sig[i]).ToArray())).ToList();
         return ForecastPlot.Write(new ForecastPlotData(curves, precisionDex) { MagnitudeLabel = "Dereddened blue magnitude (mag)" }, pathWithoutExtension);
