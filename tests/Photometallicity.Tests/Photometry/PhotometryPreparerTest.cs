@@ -69,7 +69,7 @@ public class PhotometryPreparerTest
         Assert.InRange(vxx / p.VarIndex[0], 0.99, 1.01);
         Assert.InRange(vxc / p.CovIndexColour[0], 0.99, 1.01);
 
-        // And the closed forms written out (the brief's expressions), so the analytic side is checked too.
+        // And the closed forms written out (the expressions), so the analytic side is checked too.
         double dC = -(R.Blue - R.Red), dX = -(R.Narrow - R.Blue) + k * (R.Blue - R.Red);
         Assert.Equal(sb * sb + sr * sr + dC * dC * sE * sE, p.VarColour[0], 14);
         Assert.Equal(sn * sn + (1 + k) * (1 + k) * sb * sb + k * k * sr * sr + dX * dX * sE * sE, p.VarIndex[0], 14);
