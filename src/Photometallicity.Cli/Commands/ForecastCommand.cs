@@ -45,11 +45,7 @@ internal static class ForecastCommand
             {
                 cfg = ConfigLoader.Load(configPath!);
                 var inputs = InputCatalogues.Load(cfg);
-                PhotometricErrorModel Fit(BandConfig b)
-                {
-                    var t = b.From == CatalogueSide.Broadband ? inputs.Broadband : inputs.Narrowband;
-                    return ErrorModelFitter.Fit(b.Filter, t.RequireDoubles(b.MagColumn), t.RequireDoubles(b.ErrColumn), ctx.Logger("forecast"));
-                }
+                PhotometricErrorModel Fit(BandConfig b) => PhotometryStep.FitErrorModel(b, inputs, ctx.Logger("forecast"));
                 errors = new BandErrorModels(Fit(cfg.Blue), Fit(cfg.Red), Fit(cfg.Narrow));
             }
             double distance = pr.GetValue(dm) ?? cfg?.Target.DistanceModulus ?? throw new InputException("--distance-modulus is needed without --config");

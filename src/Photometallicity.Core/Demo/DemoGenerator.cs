@@ -1,6 +1,8 @@
 using Photometallicity.Catalogues;
+using Photometallicity.Membership;
 using Photometallicity.Numerics;
 using Photometallicity.Photometry;
+using Photometallicity.Units;
 
 namespace Photometallicity.Demo;
 
@@ -22,7 +24,7 @@ public static class DemoGenerator
         var errR = new PhotometricErrorModel("r770", truth.RedDepth5, truth.ErrorFloor);
         var errN = new PhotometricErrorModel("n395", truth.NarrowDepth5, truth.ErrorFloor);
         double[] coef = truth.ExtinctionCoefficients;
-        var tangent = new Tangent(truth.CentreRaDeg, truth.CentreDecDeg);
+        var tangent = new TangentPlane(SkyPosition.FromDegrees(truth.CentreRaDeg, truth.CentreDecDeg));
 
         var id = new string[stars];
         var ra = new double[stars];
@@ -50,7 +52,8 @@ public static class DemoGenerator
                 xi = (2 * rng.NextDouble() - 1) * truth.FieldHalfWidthArcmin;
                 eta = (2 * rng.NextDouble() - 1) * truth.FieldHalfWidthArcmin;
             }
-            (ra[i], dec[i]) = tangent.ToSky(xi / 60.0, eta / 60.0);
+            var pos = tangent.Deproject(xi, eta);
+            (ra[i], dec[i]) = (pos.RaDegrees, pos.DecDegrees);
 
             double blue0, c0, x0, feh;
             if (isMember)
@@ -110,7 +113,7 @@ public static class DemoGenerator
         return new DemoField(broad, narrow, standards, starTruth, truth);
     }
 
-    private static Table MakeNarrow(Rng rng, DemoTruth truth, Tangent tangent, double[] ra, double[] dec, double[] narrowTrue, PhotometricErrorModel errN)
+    private static Table MakeNarrow(Rng rng, DemoTruth truth, TangentPlane tangent, double[] ra, double[] dec, double[] narrowTrue, PhotometricErrorModel errN)
     {
         var rows = new List<(double Ra, double Dec, double Mag, double Err)>();
         for (int i = 0; i < ra.Length; i++)
@@ -127,7 +130,8 @@ public static class DemoGenerator
         int spurious = Math.Max(5, rows.Count / 50); // 2% spurious detections (cosmic rays, artefacts), invented
         for (int s = 0; s < spurious; s++)
         {
-            var (sra, sdec) = tangent.ToSky((2 * rng.NextDouble() - 1) * truth.FieldHalfWidthArcmin / 60, (2 * rng.NextDouble() - 1) * truth.FieldHalfWidthArcmin / 60);
+            var sp = tangent.Deproject((2 * rng.NextDouble() - 1) * truth.FieldHalfWidthArcmin, (2 * rng.NextDouble() - 1) * truth.FieldHalfWidthArcmin);
+            var (sra, sdec) = (sp.RaDegrees, sp.DecDegrees);
             double m = 21.5 + 2.0 * rng.NextDouble();
             rows.Add((sra, sdec, m, errN.Sigma(m)));
         }
@@ -215,23 +219,5 @@ public static class DemoGenerator
     {
         for (int i = 0; i < v.Length; i++) v[i] = Math.Round(v[i], digits);
         return v;
-    }
-
-    /// <summary>Gnomonic (tangent-plane) projection about a centre (Calabretta &amp; Greisen 2002, A&amp;A 395, 1077, TAN).</summary>
-    private sealed class Tangent(double ra0Deg, double dec0Deg)
-    {
-        private readonly double _ra0 = ra0Deg * Math.PI / 180, _dec0 = dec0Deg * Math.PI / 180;
-
-        public (double RaDeg, double DecDeg) ToSky(double xiDeg, double etaDeg)
-        {
-            double xi = xiDeg * Math.PI / 180, eta = etaDeg * Math.PI / 180;
-            double cd = Math.Cos(_dec0), sd = Math.Sin(_dec0);
-            double den = cd - eta * sd;
-            double ra = _ra0 + Math.Atan2(xi, den);
-            double dec = Math.Atan2(sd + eta * cd, Math.Sqrt(xi * xi + den * den));
-            double raDeg = ra * 180 / Math.PI % 360;
-            if (raDeg < 0) raDeg += 360;
-            return (raDeg, dec * 180 / Math.PI);
-        }
     }
 }

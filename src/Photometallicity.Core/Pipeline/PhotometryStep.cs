@@ -35,10 +35,9 @@ public static class PhotometryStep
         var models = new List<PhotometricErrorModel>();
         foreach (var band in new[] { config.Blue, config.Red, config.Narrow })
         {
-            var table = band.From == CatalogueSide.Broadband ? broad : inputs.Narrowband;
             try
             {
-                models.Add(ErrorModelFitter.Fit(band.Filter, table.RequireDoubles(band.MagColumn), table.RequireDoubles(band.ErrColumn), log));
+                models.Add(FitErrorModel(band, inputs, log));
             }
             catch (Errors.MethodException ex)
             {
@@ -58,6 +57,29 @@ public static class PhotometryStep
     }
 
     /// <summary>
+    /// The band's photometric error model fitted to its own catalogue (every row, matched or not);
+    /// a <see cref="Errors.MethodException"/> when too few stars have a magnitude and an error.
+    /// </summary>
+    public static PhotometricErrorModel FitErrorModel(BandConfig band, InputCatalogues inputs, ILogger log)
+    {
+        var table = band.From == CatalogueSide.Broadband ? inputs.Broadband : inputs.Narrowband;
+        return ErrorModelFitter.Fit(band.Filter, table.RequireDoubles(band.MagColumn), table.RequireDoubles(band.ErrColumn), log);
+    }
+
+    /// <summary>
+    /// A band's column for every broadband row: from the broadband table itself, or from the narrow-band table through
+    /// the cross-match (<paramref name="narrowIndexPerRow"/>, -1: no partner, NaN).
+    /// </summary>
+    public static double[] BandColumn(BandConfig band, string column, Table broad, Table narrow, int[] narrowIndexPerRow)
+    {
+        if (band.From == CatalogueSide.Broadband) return broad.RequireDoubles(column);
+        double[] right = narrow.RequireDoubles(column);
+        var v = new double[broad.RowCount];
+        for (int i = 0; i < v.Length; i++) v[i] = narrowIndexPerRow[i] >= 0 ? right[narrowIndexPerRow[i]] : double.NaN;
+        return v;
+    }
+
+    /// <summary>
     /// Dereddened colour, index and their covariance for every row of <paramref name="broad"/>, with the config's
     /// bands, zero points, error cuts and index; narrow-band values through <paramref name="narrowIndexPerRow"/>
     /// (-1: no partner). <paramref name="broadCfg"/> and <paramref name="reddening"/> are the pair's own (flag column, E(B-V)).
@@ -66,14 +88,7 @@ public static class PhotometryStep
         int[] narrowIndexPerRow, BandValues coefficients, ILogger log)
     {
         int n = broad.RowCount;
-        double[] Values(BandConfig band, string column)
-        {
-            if (band.From == CatalogueSide.Broadband) return broad.RequireDoubles(column);
-            double[] right = narrowTable.RequireDoubles(column);
-            var v = new double[n];
-            for (int i = 0; i < n; i++) v[i] = narrowIndexPerRow[i] >= 0 ? right[narrowIndexPerRow[i]] : double.NaN;
-            return v;
-        }
+        double[] Values(BandConfig band, string column) => BandColumn(band, column, broad, narrowTable, narrowIndexPerRow);
         bool[] hasNarrow = new bool[n];
         for (int i = 0; i < n; i++) hasNarrow[i] = narrowIndexPerRow[i] >= 0;
 

@@ -114,7 +114,7 @@ public static class PipelineRunner
         }
 
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
-        var membership = MembershipStep.Run(config, inputs, bra, bdec, photometry, metallicity, BandErrors(magBand, inputs, match.RightIndex), log);
+        var membership = MembershipStep.Run(config, inputs, bra, bdec, photometry, metallicity, PhotometryStep.BandColumn(magBand, magBand.ErrColumn, inputs.Broadband, inputs.Narrowband, match.RightIndex), log);
         warnings.AddRange(membership.Warnings);
         Lap("membership");
 
@@ -158,14 +158,6 @@ public static class PipelineRunner
             Warnings = warnings,
             Timings = timings,
         };
-    }
-
-    private static double[] BandErrors(BandConfig band, InputCatalogues inputs, int[] narrowIndex)
-    {
-        var t = band.From == CatalogueSide.Broadband ? inputs.Broadband : inputs.Narrowband;
-        double[] e = t.RequireDoubles(band.ErrColumn);
-        if (band.From == CatalogueSide.Broadband) return e;
-        return narrowIndex.Select(k => k >= 0 ? e[k] : double.NaN).ToArray();
     }
 
     private static NarrowCompleteness CompletenessWarnings(PhotometryProducts phot, CrossMatchResult match, double[] pMember, MetallicityResult feh, List<string> warnings)

@@ -119,20 +119,13 @@ public static class RunReport
 
     private static double[] Pick(double[] v, int[] rows) => rows.Select(i => v[i]).ToArray();
 
-    /// <summary>Gnomonic projection (Calabretta &amp; Greisen 2002, A&amp;A 395, 1077, TAN) in arcmin; xi grows to the east.</summary>
+    /// <summary>Standard coordinates (arcmin, xi towards east) about the fitted centre; NaN where a star cannot be projected.</summary>
     private static (double[] Xi, double[] Eta) Gnomonic(double[] ra, double[] dec, double ra0Deg, double dec0Deg)
     {
-        int n = ra.Length;
-        var xi = new double[n];
-        var eta = new double[n];
-        double a0 = ra0Deg * Math.PI / 180, d0 = dec0Deg * Math.PI / 180;
-        for (int i = 0; i < n; i++)
-        {
-            double a = ra[i] * Math.PI / 180, d = dec[i] * Math.PI / 180;
-            double cosc = Math.Sin(d0) * Math.Sin(d) + Math.Cos(d0) * Math.Cos(d) * Math.Cos(a - a0);
-            xi[i] = Math.Cos(d) * Math.Sin(a - a0) / cosc * (180 / Math.PI * 60);
-            eta[i] = (Math.Cos(d0) * Math.Sin(d) - Math.Sin(d0) * Math.Cos(d) * Math.Cos(a - a0)) / cosc * (180 / Math.PI * 60);
-        }
+        var plane = new Membership.TangentPlane(Units.SkyPosition.FromDegrees(ra0Deg, dec0Deg));
+        var xi = new double[ra.Length];
+        var eta = new double[ra.Length];
+        for (int i = 0; i < ra.Length; i++) plane.TryProject(ra[i], dec[i], out xi[i], out eta[i]);
         return (xi, eta);
     }
 }
