@@ -38,5 +38,8 @@ public static class CliApp
         yield return ReportCommand.Create(ctx);
         yield return ConvertCommand.Create(ctx);
         yield return HealpixCommand.Create(ctx);
+        yield return SplitCommand.Create(ctx);
+        yield return TileCommand.Create(ctx);
+        yield return MergeCommand.Create(ctx);
     }
 }

@@ -69,4 +69,7 @@ public sealed record CrossMatchResult
 
     public int Iterations { get; init; }
     public bool Converged { get; init; }
+
+    /// <summary>The solution this pairing used, to repeat it exactly on a subset of the catalogues (survey tiles).</summary>
+    public AstrometricSolution? Solution { get; init; }
 }

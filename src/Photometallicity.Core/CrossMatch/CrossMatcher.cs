@@ -98,8 +98,6 @@ public static class CrossMatcher
         // widened searches, which finds exactly the pairs a new tree would.
         // Each corrected position is computed where it is needed (in the tree, and for the matched rows below).
         var tree = rawTree is null ? SkyKdTree.Build(right) : correction is { } cr ? rawTree.WithMovedPoints(cr) : rawTree;
-        bool corrected = correction.HasValue;
-        var corr = correction.GetValueOrDefault();
         Phase(logger, "tree of the corrected catalogue", clock);
         if (options.AutoRadius && outcome is null)
         {
@@ -108,46 +106,14 @@ public static class CrossMatcher
             radiusReason = choice.Reason + " (no offset correction was applied)";
         }
 
-        double chord = SkySeparation.Chord(radius);
-        var pairs = CandidatePairs.Find(tree, left, chord * chord);
-        // The false-match tests read only the tree and the left positions: they run alongside the (sequential)
-        // one-to-one assignment.
         var finalRadius = radius;
-        var falseMatch = Task.Run(() => (FalseMatchRate.Expected(tree, left, finalRadius), FalseMatchRate.Measured(tree, left, finalRadius)));
-        Phase(logger, "candidate pairs", clock);
-        var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
-        Phase(logger, "assignment", clock);
-        var sep = new double[nLeft];
-        var blend = new bool[nLeft];
-        Chunks.For(nLeft, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
-        {
-            for (int i = lo; i < hi; i++)
-            {
-                int r = rightIndex[i];
-                blend[i] = pairs.CountOf(i) >= 2;
-                if (r < 0)
-                {
-                    sep[i] = double.NaN;
-                    continue;
-                }
-                var (px, py, pz) = corrected ? corr.Map(r) : (right.X[r], right.Y[r], right.Z[r]);
-                var (ra, dec) = UnitVectors.ToDegrees(px, py, pz);
-                sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
-            }
-        });
-        int matched = 0, blends = 0, lost = 0;
-        for (int i = 0; i < nLeft; i++)
-        {
-            if (rightIndex[i] < 0)
-            {
-                if (pairs.CountOf(i) > 0) lost++;
-                continue;
-            }
-            matched++;
-            if (blend[i]) blends++;
-        }
-        Phase(logger, "one-to-one match done", clock);
-        var (expected, measured) = falseMatch.GetAwaiter().GetResult();
+        var core = Pair(tree, left, leftRaDeg, leftDecDeg, right, correction, nRight, radius,
+            () => (FalseMatchRate.Expected(tree, left, finalRadius), FalseMatchRate.Measured(tree, left, finalRadius)), logger, clock);
+        var (expected, measured) = core.FalseMatch;
+        var rightIndex = core.RightIndex;
+        var sep = core.Separation;
+        var blend = core.Blend;
+        int matched = core.Matched, blends = core.Blends, lost = core.Lost;
         Phase(logger, "false-match rates", clock);
 
         var fit = outcome?.Fit;
@@ -190,12 +156,120 @@ public static class CrossMatcher
             MeasuredFalseMatchRateError = measured.Error,
             Iterations = iterations,
             Converged = outcome?.Converged ?? !options.SolveOffset,
+            Solution = correction.HasValue
+                ? new AstrometricSolution(true, plane!.CentreVector.X, plane.CentreVector.Y, plane.CentreVector.Z, transform, radius)
+                : new AstrometricSolution(false, 0, 0, 0, AstrometricTransform.Identity, radius),
         };
         logger?.LogInformation("crossmatch: {Reason}", offsetReason);
         logger?.LogInformation("crossmatch: radius {Reason}", radiusReason);
         logger?.LogInformation("crossmatch: matched {Matched} of {Left} left sources ({Blends} possible blends, {Lost} lost to closer pairs); false-match rate expected {Exp:0.0000}, measured {Meas:0.0000} +/- {Err:0.0000} ({Ms} ms)",
             matched, nLeft, blends, lost, expected, measured.Rate, measured.Error, clock.ElapsedMilliseconds);
         return result;
+    }
+
+    /// <summary>The pairing of a run, with the false-match rates run alongside the sequential assignment.</summary>
+    private readonly record struct PairingCore(int[] RightIndex, double[] Separation, bool[] Blend, CandidatePairs Pairs, int Matched, int Blends, int Lost,
+        (double Expected, (double Rate, double Error, int Trials) Measured) FalseMatch);
+
+    /// <summary>
+    /// Candidate pairs within the radius of the corrected right catalogue, the one-to-one assignment, separations and
+    /// blend flags. The same code serves a whole-field run and a run on a tile with a fixed solution, so both give the
+    /// same answer for every source whose candidates all lie in the tile.
+    /// </summary>
+    private static PairingCore Pair(SkyKdTree tree, UnitVectors left, double[] leftRaDeg, double[] leftDecDeg, UnitVectors right,
+        OffsetSolver.Correction? correction, int nRight, Angle radius, Func<(double, (double Rate, double Error, int Trials))>? falseMatchRates, ILogger? logger, Stopwatch clock)
+    {
+        int nLeft = left.Count;
+        double chord = SkySeparation.Chord(radius);
+        var pairs = CandidatePairs.Find(tree, left, chord * chord);
+        // The false-match tests read only the tree and the left positions: they run alongside the (sequential)
+        // one-to-one assignment.
+        var falseMatch = falseMatchRates is null ? null : Task.Run(falseMatchRates);
+        Phase(logger, "candidate pairs", clock);
+        var (rightIndex, _) = OneToOneMatcher.Assign(pairs, nRight);
+        Phase(logger, "assignment", clock);
+        var sep = new double[nLeft];
+        var blend = new bool[nLeft];
+        bool corrected = correction.HasValue;
+        var corr = correction.GetValueOrDefault();
+        Chunks.For(nLeft, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (_, lo, hi) =>
+        {
+            for (int i = lo; i < hi; i++)
+            {
+                int r = rightIndex[i];
+                blend[i] = pairs.CountOf(i) >= 2;
+                if (r < 0)
+                {
+                    sep[i] = double.NaN;
+                    continue;
+                }
+                var (px, py, pz) = corrected ? corr.Map(r) : (right.X[r], right.Y[r], right.Z[r]);
+                var (ra, dec) = UnitVectors.ToDegrees(px, py, pz);
+                sep[i] = SkySeparation.Arcseconds(leftRaDeg[i], leftDecDeg[i], ra, dec);
+            }
+        });
+        int matched = 0, blends = 0, lost = 0;
+        for (int i = 0; i < nLeft; i++)
+        {
+            if (rightIndex[i] < 0)
+            {
+                if (pairs.CountOf(i) > 0) lost++;
+                continue;
+            }
+            matched++;
+            if (blend[i]) blends++;
+        }
+        Phase(logger, "one-to-one match done", clock);
+        var rates = falseMatch is null ? (double.NaN, (double.NaN, double.NaN, 0)) : falseMatch.GetAwaiter().GetResult();
+        return new PairingCore(rightIndex, sep, blend, pairs, matched, blends, lost, rates);
+    }
+
+    /// <summary>
+    /// The pairing alone with a solution fixed beforehand (by a whole-field run): no offset is solved, no radius
+    /// chosen and no false-match rate measured (those fields are NaN or zero). Used on survey tiles; every left
+    /// source whose candidates, and their competitors' candidates, all lie in the given rows is paired exactly as
+    /// in the whole-field run. <paramref name="pairs"/> gives the candidate pairs for such completeness checks.
+    /// </summary>
+    public static CrossMatchResult RunWith(double[] leftRaDeg, double[] leftDecDeg, double[] rightRaDeg, double[] rightDecDeg,
+        AstrometricSolution solution, out CandidatePairs pairs, ILogger? logger = null)
+    {
+        CheckPositions(leftRaDeg, leftDecDeg, "left");
+        CheckPositions(rightRaDeg, rightDecDeg, "right");
+        var clock = Stopwatch.StartNew();
+        var left = UnitVectors.FromDegrees(leftRaDeg, leftDecDeg);
+        var rightRaw = UnitVectors.FromDegrees(rightRaDeg, rightDecDeg);
+        var leftOrder = Task.Run(() => left.Order);
+        var rawTree = SkyKdTree.Build(rightRaw);
+        leftOrder.Wait();
+        OffsetSolver.Correction? correction = null;
+        if (solution.Plane is { } plane)
+        {
+            var (rXi, rEta) = plane.ProjectAll(rightRaw);
+            correction = new OffsetSolver.Correction(plane, solution.Transform, rXi, rEta, rightRaw);
+        }
+        var tree = correction is { } cr ? rawTree.WithMovedPoints(cr) : rawTree;
+        var core = Pair(tree, left, leftRaDeg, leftDecDeg, rightRaw, correction, rightRaDeg.Length, solution.Radius, null, logger, clock);
+        pairs = core.Pairs;
+        return new CrossMatchResult
+        {
+            RightIndex = core.RightIndex,
+            SeparationArcsec = core.Separation,
+            Blend = core.Blend,
+            LeftCount = leftRaDeg.Length,
+            RightCount = rightRaDeg.Length,
+            Matched = core.Matched,
+            BlendCount = core.Blends,
+            LostContention = core.Lost,
+            RadiusUsed = solution.Radius,
+            RadiusReason = "fixed by a whole-field solution",
+            OffsetSolved = solution.Corrected,
+            OffsetReason = "fixed by a whole-field solution",
+            ExpectedFalseMatchRate = double.NaN,
+            MeasuredFalseMatchRate = double.NaN,
+            MeasuredFalseMatchRateError = double.NaN,
+            Converged = true,
+            Solution = solution,
+        };
     }
 
     /// <summary>A debug line with the time since the stage started (wall, and the whole process's CPU).</summary>

@@ -37,6 +37,12 @@ public sealed class TangentPlane
         (CentreRaDeg, CentreDecDeg) = UnitVectors.ToDegrees(cx, cy, cz);
     }
 
+    /// <summary>The plane about a given centre (a unit vector, as <see cref="CentreVector"/> returns it).</summary>
+    public static TangentPlane FromCentre(double cx, double cy, double cz) => new(cx, cy, cz);
+
+    /// <summary>The centre as a unit vector, exactly as the plane uses it.</summary>
+    public (double X, double Y, double Z) CentreVector => (_cx, _cy, _cz);
+
     public double CentreRaDeg { get; }
     public double CentreDecDeg { get; }
 

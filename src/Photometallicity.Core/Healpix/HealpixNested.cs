@@ -134,7 +134,7 @@ public sealed class HealpixNested
         return FromAngles(Math.Acos(Math.Clamp(vz / norm, -1, 1)), Math.Atan2(vy, vx));
     }
 
-    private (int Face, long Ix, long Iy) Decompose(long pixel)
+    internal (int Face, long Ix, long Iy) Decompose(long pixel)
     {
         if (pixel < 0 || pixel >= PixelCount) throw new ArgumentOutOfRangeException(nameof(pixel), pixel, $"pixel must lie in [0, {PixelCount}).");
         int face = (int)(pixel >> (2 * Order));

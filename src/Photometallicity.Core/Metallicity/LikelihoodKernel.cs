@@ -53,10 +53,12 @@ internal sealed class LikelihoodKernel
     }
 
     /// <summary>
-    /// Finds the window [a, b) inside the star's [j0, j1] (tabulated indices) and queues the star. Returns false (nothing
+    /// Finds the window [a, b) inside the star's [j0, j1] (tabulated indices) and queues the star. <paramref name="key"/> (the
+    /// star's whole-field row) fixes which ensemble members a subset-sampled star uses, so a star gets the same answer in any
+    /// subset of the field (a survey tile). Returns false (nothing
     /// queued) when the window is empty: the index is more than W sigma beyond every member.
     /// </summary>
-    public bool Queue(int star, int k, float t, double x0, double varX, double varC, double cov, int j0, int j1, double windowSigmas, out int a, out int b)
+    public bool Queue(long key, int k, float t, double x0, double varX, double varC, double cov, int j0, int j1, double windowSigmas, out int a, out int b)
     {
         var g = _g;
         // Range of s^2 over members and the slope range of nodes k, k+1: q(g) = g^2 varC - 2 g cov is convex in g, so its
@@ -94,7 +96,7 @@ internal sealed class LikelihoodKernel
         {
             K = k, T = t, X0 = (float)x0, VarX = (float)varX, VarC = (float)varC, Cov = (float)cov, A = a, B = b, Level = level,
             Ia = a / stride, Ib = (b - 1 + stride - 1) / stride,
-            MemberCount = members, FirstMember = members == g.Members ? 0 : (int)((long)star * 7919 % g.Members),
+            MemberCount = members, FirstMember = members == g.Members ? 0 : (int)(key * 7919 % g.Members),
         };
         return true;
     }

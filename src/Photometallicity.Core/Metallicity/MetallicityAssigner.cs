@@ -11,7 +11,7 @@ namespace Photometallicity.Metallicity;
 /// The metallicity stage: per-star [Fe/H] posteriors from the dereddened index and colour, marginalised over the calibration's
 /// bootstrap ensemble (equal weights), on a fixed grid restricted to the validity domain at the star's colour.
 /// Posterior(F) ∝ prior(F) (1/M) sum_m N(X0; f_m(C0, F), s_m^2) (see <see cref="LikelihoodKernel"/> for s_m).
-/// Build once per calibration (the ensemble is tabulated on construction), then <see cref="Run(IndexPhotometry, ILogger?, IProgress{double}?)"/>.
+/// Build once per calibration (the ensemble is tabulated on construction), then <see cref="Run(IndexPhotometry, ILogger?, IProgress{double}?, int[])"/>.
 /// Parallel over fixed chunks of stars taken in colour order (for cache locality); every star is independent and written by
 /// index, so the output does not depend on the thread count. For two calibration branches (giants, dwarfs), run once per branch.
 /// </summary>
@@ -44,12 +44,17 @@ public sealed class MetallicityAssigner
     /// <summary>Spacing of the colour nodes of the tabulated model (mag).</summary>
     public double ColourNodeStep => _grid.ColourStep;
 
+    /// <summary>
+    /// Every star's [Fe/H]. <paramref name="rowKeys"/> gives each star's row in the whole field when
+    /// <paramref name="photometry"/> holds only part of it (a survey tile); by default a star's key is its own index.
+    /// </summary>
     public static MetallicityResult Run(IndexPhotometry photometry, CalibrationModel model, MetallicityOptions options,
-        ILogger? logger = null, IProgress<double>? progress = null) =>
-        new MetallicityAssigner(model, options).Run(photometry, logger, progress);
+        ILogger? logger = null, IProgress<double>? progress = null, int[]? rowKeys = null) =>
+        new MetallicityAssigner(model, options).Run(photometry, logger, progress, rowKeys);
 
-    public MetallicityResult Run(IndexPhotometry photometry, ILogger? logger = null, IProgress<double>? progress = null)
+    public MetallicityResult Run(IndexPhotometry photometry, ILogger? logger = null, IProgress<double>? progress = null, int[]? rowKeys = null)
     {
+        if (rowKeys is not null) Guard.SameLength(rowKeys.Length, photometry.Count, "rowKeys", "Colour0");
         var clock = Stopwatch.StartNew();
         int n = photometry.Count;
         Guard.SameLength(photometry.Index0.Length, n, "Index0", "Colour0");
@@ -96,7 +101,7 @@ public sealed class MetallicityAssigner
                 {
                     int i = order[p];
                     if (!photometry.IsUsable(i)) Write(i, StarSummary.Without(MetallicityStatus.BadPhotometry), 0, 0);
-                    else if (!solver.TryBegin(i, photometry.Index0[i], photometry.Colour0[i], photometry.VarIndex[i], photometry.VarColour[i],
+                    else if (!solver.TryBegin(i, rowKeys is null ? i : rowKeys[i], photometry.Index0[i], photometry.Colour0[i], photometry.VarIndex[i], photometry.VarColour[i],
                                  photometry.CovIndexColour[i], out var early)) Write(i, early, 0, 0);
                     if (solver.PendingCount == LikelihoodKernel.BatchCapacity) solver.FinishBatch(buf, Write);
                 }

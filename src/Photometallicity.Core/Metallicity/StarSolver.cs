@@ -58,7 +58,7 @@ internal sealed class StarSolver
     /// Checks the star and queues it for the batch kernel; returns false with the final summary when the star needs no
     /// likelihood (bad photometry, colour outside the domain or in an excluded interval).
     /// </summary>
-    public bool TryBegin(int star, double x0, double c0, double vx, double vc, double cov, out StarSummary early)
+    public bool TryBegin(int star, long key, double x0, double c0, double vx, double vc, double cov, out StarSummary early)
     {
         early = default;
         if (!(double.IsFinite(x0) && double.IsFinite(c0) && double.IsFinite(cov) && vx >= 0 && vc >= 0 && double.IsFinite(vx) && double.IsFinite(vc)))
@@ -82,7 +82,7 @@ internal sealed class StarSolver
         p.ZAbove = rising ? (x0 - fHi) / sHi : (x0 - fLo) / sLo;
         p.ZBelow = rising ? (fLo - x0) / sLo : (fHi - x0) / sHi;
         int q = _kernel.Queued;
-        p.Queue = _kernel.Queue(star, k, t, x0, vx, vc, cov, j0, j1, _o.WindowSigmas, out p.A, out p.B) ? q : -1;
+        p.Queue = _kernel.Queue(key, k, t, x0, vx, vc, cov, j0, j1, _o.WindowSigmas, out p.A, out p.B) ? q : -1;
         return true;
     }
 
@@ -102,7 +102,7 @@ internal sealed class StarSolver
     /// <summary>One star alone, without storing its likelihood.</summary>
     public StarSummary Solve(double x0, double c0, double vx, double vc, double cov)
     {
-        if (!TryBegin(0, x0, c0, vx, vc, cov, out var early)) return early;
+        if (!TryBegin(0, 0, x0, c0, vx, vc, cov, out var early)) return early;
         StarSummary r = default;
         FinishBatch(null, (_, s, _, _) => r = s);
         return r;

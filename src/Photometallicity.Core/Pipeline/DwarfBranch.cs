@@ -19,7 +19,22 @@ public static class DwarfBranch
 {
     public const int MinStandards = 8;
 
+    /// <summary>
+    /// The dwarf calibration and every star's [Fe/H] under it; <paramref name="precomputed"/> supplies the per-star
+    /// [Fe/H] when it was computed elsewhere (survey tiles) with this same calibration.
+    /// </summary>
     public static DwarfProducts? Run(PipelineConfig config, StandardsProducts standards, PhotometryProducts photometry, MetallicityOptions metallicityOptions,
+        ILogger log, ProgressReporter? progress, MetallicityResult? precomputed = null)
+    {
+        if (Fit(config, standards, photometry, log, progress) is not { } fitted) return null;
+        var (fit, count) = fitted;
+        var feh = precomputed ?? MetallicityAssigner.Run(photometry.Index, fit.Model, metallicityOptions, log);
+        log.LogInformation("dwarf calibration: {Used} standards used, degree {Degree}, rms {Rms:F3} dex", fit.Model.StandardsUsed, fit.Model.Basis.Degree, fit.Model.RmsDex);
+        return new DwarfProducts(fit, feh, count);
+    }
+
+    /// <summary>The dwarf calibration alone (null when the standards carry no log g or too few are dwarfs), and how many dwarf standards it had.</summary>
+    public static (CalibrationResult Fit, int Standards)? Fit(PipelineConfig config, StandardsProducts standards, PhotometryProducts photometry,
         ILogger log, ProgressReporter? progress)
     {
         var s = standards.Standards;
@@ -45,8 +60,6 @@ public static class DwarfBranch
                 Filters = photometry.Filters,
             }, log, p);
         }
-        var feh = MetallicityAssigner.Run(photometry.Index, fit.Model, metallicityOptions, log);
-        log.LogInformation("dwarf calibration: {Used} standards used, degree {Degree}, rms {Rms:F3} dex", fit.Model.StandardsUsed, fit.Model.Basis.Degree, fit.Model.RmsDex);
-        return new DwarfProducts(fit, feh, rows.Length);
+        return (fit, rows.Length);
     }
 }

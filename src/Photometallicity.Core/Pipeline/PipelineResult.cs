@@ -35,4 +35,7 @@ public sealed record PipelineResult
     public StarRows? Stars { get; init; }
     public required IReadOnlyList<string> Warnings { get; init; }
     public required IReadOnlyList<(string Stage, double Seconds)> Timings { get; init; }
+
+    /// <summary>Peak resident memory of each stage (MiB), see <see cref="PeakMemory"/>.</summary>
+    public IReadOnlyList<(string Stage, double MiB)> PeakMemoryMiB { get; init; } = [];
 }

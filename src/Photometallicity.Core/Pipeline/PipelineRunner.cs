@@ -21,12 +21,16 @@ public static class PipelineRunner
         scope ??= RunScope.Whole;
         var log = logger ?? NullLogger.Instance;
         var timings = new List<(string, double)>();
+        var memory = new List<(string, double)>();
+        PeakMemory.TakeMiB();
         var warnings = new List<string>();
         var clock = Stopwatch.StartNew();
         void Lap(string stage)
         {
             timings.Add((stage, Math.Round(clock.Elapsed.TotalSeconds, 3)));
-            log.LogInformation("{Stage} took {Seconds:F2} s", stage, clock.Elapsed.TotalSeconds);
+            double mib = PeakMemory.TakeMiB();
+            memory.Add((stage, mib));
+            log.LogInformation("{Stage} took {Seconds:F2} s, peak memory {MiB:F0} MiB", stage, clock.Elapsed.TotalSeconds, mib);
             clock.Restart();
         }
 
@@ -38,14 +42,11 @@ public static class PipelineRunner
         var b = inputs.Broadband;
         double[] bra = b.RequireDoubles(config.Broadband.RaColumn), bdec = b.RequireDoubles(config.Broadband.DecColumn);
         double[] nra = inputs.Narrowband.RequireDoubles(config.Narrowband.RaColumn), ndec = inputs.Narrowband.RequireDoubles(config.Narrowband.DecColumn);
-        var match = CrossMatcher.Run(bra, bdec, nra, ndec, new CrossMatchOptions
-        {
-            Radius = Angle.FromArcseconds(config.CrossMatch.RadiusArcsec ?? 1.0),
-            AutoRadius = config.CrossMatch.AutoRadius,
-            SolveOffset = config.CrossMatch.SolveOffset,
-            SolveRotationScale = config.CrossMatch.SolveRotationScale,
-        }, log);
-        Lap("crossmatch");
+        var pre = scope.Precomputed;
+        if (pre is not null && (pre.Match.LeftCount != b.RowCount || pre.Metallicity.Count != b.RowCount))
+            throw new Errors.InputException($"the tiles' results cover {pre.Match.LeftCount} broadband rows but {config.Broadband.Path} has {b.RowCount}: the inputs changed after the split");
+        var match = pre?.Match ?? CrossMatcher.Run(bra, bdec, nra, ndec, MatchOptions(config), log);
+        Lap(pre is null ? "crossmatch" : "crossmatch (from tiles)");
 
         var photometry = PhotometryStep.Run(config, inputs, match.RightIndex, log);
         Lap("photometry");
@@ -87,29 +88,25 @@ public static class PipelineRunner
         }
         if (scope.StopAfter == PipelineStage.Calibration)
             return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
-                Standards = standards, Calibration = calibration, Warnings = warnings, Timings = timings };
+                Standards = standards, Calibration = calibration, Warnings = warnings, Timings = timings, PeakMemoryMiB = memory };
 
-        var metallicityOptions = new MetallicityOptions
-        {
-            GridMin = config.Metallicity.GridMin,
-            GridMax = config.Metallicity.GridMax,
-            GridStep = config.Metallicity.GridStep,
-            PriorMean = config.Metallicity.PriorMean,
-            PriorSigma = config.Metallicity.PriorSigma,
-        };
+        var metallicityOptions = MetallicityOptionsOf(config);
         MetallicityResult metallicity;
         using (var p = progress?.For("metallicity"))
         {
-            metallicity = MetallicityAssigner.Run(photometry.Index, cm, metallicityOptions, log, p);
+            metallicity = pre?.Metallicity ?? MetallicityAssigner.Run(photometry.Index, cm, metallicityOptions, log, p);
         }
-        Lap("metallicity");
-        var dwarf = standards is not null ? DwarfBranch.Run(config, standards, photometry, metallicityOptions, log, progress) : null;
+        Lap(pre is null ? "metallicity" : "metallicity (from tiles)");
+        var dwarf = standards is not null ? DwarfBranch.Run(config, standards, photometry, metallicityOptions, log, progress, pre?.DwarfMetallicity) : null;
+        if (pre is not null && (dwarf is null) != (pre.DwarfMetallicity is null))
+            throw new Errors.InputException("the tiles' dwarf-branch results do not match this run's standards: the inputs changed after the split");
         if (dwarf is not null) Lap("dwarf branch");
         if (scope.StopAfter == PipelineStage.Metallicity)
         {
             var noMembers = Enumerable.Repeat(double.NaN, inputs.Broadband.RowCount).ToArray();
             return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
                 Standards = standards, Calibration = calibration, Metallicity = metallicity, Dwarf = dwarf, Warnings = warnings, Timings = timings,
+            PeakMemoryMiB = memory,
                 Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers, dwarf?.Metallicity) };
         }
 
@@ -157,8 +154,28 @@ public static class PipelineRunner
             Stars = stars,
             Warnings = warnings,
             Timings = timings,
+            PeakMemoryMiB = memory,
         };
     }
+
+    /// <summary>The cross-match settings of a config.</summary>
+    public static CrossMatchOptions MatchOptions(PipelineConfig config) => new()
+    {
+        Radius = Angle.FromArcseconds(config.CrossMatch.RadiusArcsec ?? 1.0),
+        AutoRadius = config.CrossMatch.AutoRadius,
+        SolveOffset = config.CrossMatch.SolveOffset,
+        SolveRotationScale = config.CrossMatch.SolveRotationScale,
+    };
+
+    /// <summary>The metallicity settings of a config.</summary>
+    public static MetallicityOptions MetallicityOptionsOf(PipelineConfig config) => new()
+    {
+        GridMin = config.Metallicity.GridMin,
+        GridMax = config.Metallicity.GridMax,
+        GridStep = config.Metallicity.GridStep,
+        PriorMean = config.Metallicity.PriorMean,
+        PriorSigma = config.Metallicity.PriorSigma,
+    };
 
     private static NarrowCompleteness CompletenessWarnings(PhotometryProducts phot, CrossMatchResult match, double[] pMember, MetallicityResult feh, List<string> warnings)
     {

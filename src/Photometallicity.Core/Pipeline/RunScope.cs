@@ -14,5 +14,14 @@ public enum PipelineStage
 /// </summary>
 public sealed record RunScope(PipelineStage StopAfter = PipelineStage.Membership, string? CalibrationPath = null)
 {
+    /// <summary>Per-star products computed elsewhere (on survey tiles) that the run takes instead of computing them.</summary>
+    public PerStarProducts? Precomputed { get; init; }
+
     public static RunScope Whole { get; } = new();
 }
+
+/// <summary>
+/// The per-star products of the cross-match and metallicity stages for every broadband row of the field, in input
+/// order, as the tiles of a split survey computed them (see Tiling.TileMerger).
+/// </summary>
+public sealed record PerStarProducts(CrossMatch.CrossMatchResult Match, Metallicity.MetallicityResult Metallicity, Metallicity.MetallicityResult? DwarfMetallicity);

@@ -66,6 +66,7 @@ public static class SummaryBuilder
             ["scope"] = r.Scope.StopAfter.ToString().ToLowerInvariant(),
             ["resolved_config"] = JsonSerializer.SerializeToNode(c, ResolvedConfigOptions),
             ["timings_s"] = new JsonObject(r.Timings.Select(t => new KeyValuePair<string, JsonNode?>(t.Stage, t.Seconds))),
+            ["peak_memory_mib"] = new JsonObject(r.PeakMemoryMiB.Select(t => new KeyValuePair<string, JsonNode?>(t.Stage, t.MiB))),
         };
         return summary;
     }
