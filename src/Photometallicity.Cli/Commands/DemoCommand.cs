@@ -11,7 +11,8 @@ internal static class DemoCommand
         var outDir = new Option<string>("--out") { Description = "Directory for the invented field's inputs, truth and config.json; the results go to DIR/out.", DefaultValueFactory = _ => "demo-out" };
         var seed = new Option<ulong>("--seed") { Description = "Seed of the invented field and of the run.", DefaultValueFactory = _ => 1UL };
         var stars = new Option<int>("--stars") { Description = "Number of broadband sources in the invented field (at least 500).", DefaultValueFactory = _ => 20000 };
-        var cmd = new Command("demo", $"Write the invented demonstration field ({DemoTruth.GalaxyName}: an invented dwarf galaxy with a Milky Way foreground, invented filters and numbers) and run the whole pipeline on it.") { outDir, seed, stars };
+        var inputsOnly = new Option<bool>("--inputs-only") { Description = "Only write the invented field and its config (for benchmarks and tiled runs); do not run the pipeline." };
+        var cmd = new Command("demo", $"Write the invented demonstration field ({DemoTruth.GalaxyName}: an invented dwarf galaxy with a Milky Way foreground, invented filters and numbers) and run the whole pipeline on it.") { outDir, seed, stars, inputsOnly };
         cmd.SetAction(pr => CommandRunner.Execute(ctx, () =>
         {
             int n = pr.GetValue(stars);
@@ -22,6 +23,7 @@ internal static class DemoCommand
             var field = DemoGenerator.Generate(n, s);
             string config = DemoWriter.Write(field, dir, s);
             ctx.Error.WriteLine($"wrote the invented inputs and {Path.GetFileName(config)} to {dir}");
+            if (pr.GetValue(inputsOnly)) return 0;
             var result = PipelineExecution.RunAndWrite(ctx, config, null);
             ctx.Error.WriteLine($"demo done: results in {result.Config.Output.Directory} (start with summary.html); the invented truth is in {Path.Combine(dir, "truth")}");
             return 0;
