@@ -8,99 +8,108 @@ namespace Photometallicity.Tiling;
 /// <summary>
 /// Gathers the tiles' results into whole-field per-star products in the original row order, each row from the
 /// one tile that owns it; every row must be owned exactly once. The merged run then takes them in place of its own
-/// cross-match and [Fe/H] (<see cref="RunScope.Precomputed"/>) and does the rest as 'run' does.
+/// cross-match and [Fe/H] (<see cref="RunScope.Precomputed"/>) and does the rest as 'run' does. Tiles are read one at a
+/// time (their heads first, to size the likelihood store), so the merge holds one tile's result beside the field's.
 /// </summary>
 public static class TileMerger
 {
-    public static PerStarProducts Gather(TilePlan plan, ILogger log)
+    public static PerStarProducts Gather(TilePlan plan, ILogger log, IProgress<double>? progress = null)
     {
+        string planPath = Path.Combine(plan.WorkDirectory, TilePlan.FileName);
         long total = plan.BroadbandRows;
-        if (total > int.MaxValue) throw new InputException($"the plan has {total} broadband rows, more than one run holds", file: Path.Combine(plan.WorkDirectory, TilePlan.FileName));
+        if (total > int.MaxValue) throw new InputException($"the plan has {total} broadband rows, more than one run holds", file: planPath);
+        if (plan.Tiles.Count == 0) throw new InputException("the plan has no tiles", file: planPath);
         int n = (int)total;
+        var paths = plan.Tiles.Select(t => Path.Combine(plan.TileDirectory(t.Index), TileResultFile.FileName)).ToArray();
+        var heads = new TileResultFile.Header[paths.Length];
+        for (int t = 0; t < paths.Length; t++)
+        {
+            var h = heads[t] = TileResultFile.ReadHeader(paths[t]);
+            if (h.TileIndex != plan.Tiles[t].Index || h.Rows != plan.Tiles[t].OwnedRows)
+                throw new InputException($"tile result is for tile {h.TileIndex} with {h.Rows} rows; the plan expects tile {plan.Tiles[t].Index} with {plan.Tiles[t].OwnedRows}: run 'split' and the tiles again", file: paths[t]);
+        }
+        bool dwarf = heads[0].HasDwarf;
+        if (heads.Any(h => h.HasDwarf != dwarf)) throw new InputException("some tiles have dwarf-branch results and some not: run the tiles again", file: plan.WorkDirectory);
+        var main = new Store(n, heads.Sum(h => h.WindowValues));
+        var dw = dwarf ? new Store(n, heads.Sum(h => h.DwarfWindowValues)) : null;
         var owner = new int[n];
         Array.Fill(owner, -1);
         var right = new int[n];
         var sep = new double[n];
         var blend = new bool[n];
-        var results = new List<TileResult>(plan.Tiles.Count);
-        foreach (var tile in plan.Tiles)
+        for (int t = 0; t < paths.Length; t++)
         {
-            string path = Path.Combine(plan.TileDirectory(tile.Index), TileResultFile.FileName);
-            var r = TileResultFile.Read(path);
-            if (r.TileIndex != tile.Index || r.Count != tile.OwnedRows)
-                throw new InputException($"tile result is for tile {r.TileIndex} with {r.Count} rows; the plan expects tile {tile.Index} with {tile.OwnedRows}: run 'split' and the tiles again", file: path);
+            var r = TileResultFile.Read(paths[t]);
+            if ((r.Dwarf is not null) != dwarf) throw new InputException("some tiles have dwarf-branch results and some not: run the tiles again", file: paths[t]);
             for (int k = 0; k < r.Count; k++)
             {
                 int row = r.Rows[k];
-                if ((uint)row >= (uint)n) throw new InputException($"tile result names row {row}, outside the field's {n} rows", file: path);
-                if (owner[row] >= 0) throw new InputException($"row {row + 1} is owned by tiles {owner[row]} and {tile.Index}", file: path);
-                owner[row] = tile.Index;
+                if ((uint)row >= (uint)n) throw new InputException($"tile result names row {row}, outside the field's {n} rows", file: paths[t]);
+                if (owner[row] >= 0) throw new InputException($"broadband row {row + 1} is owned by tiles {owner[row]} and {r.TileIndex}", file: paths[t]);
+                owner[row] = r.TileIndex;
                 right[row] = r.RightIndex[k];
                 sep[row] = r.SeparationArcsec[k];
                 blend[row] = r.Blend[k];
             }
-            results.Add(r);
+            main.Add(r.Rows, r.Metallicity, r.TileIndex, paths[t]);
+            dw?.Add(r.Rows, r.Dwarf!, r.TileIndex, paths[t]);
+            progress?.Report((t + 1.0) / paths.Length);
         }
         int missing = Array.IndexOf(owner, -1);
-        if (missing >= 0) throw new InputException($"broadband row {missing + 1} is owned by no tile: the plan is inconsistent; run 'split' again", file: Path.Combine(plan.WorkDirectory, TilePlan.FileName));
-        bool dwarf = results.Count > 0 && results[0].Dwarf is not null;
-        if (results.Any(r => (r.Dwarf is not null) != dwarf)) throw new InputException("some tiles have dwarf-branch results and some not: run the tiles again", file: plan.WorkDirectory);
+        if (missing >= 0) throw new InputException($"broadband row {missing + 1} is owned by no tile: the plan is inconsistent; run 'split' again", file: planPath);
         var match = CrossMatchSolutionJson.Read(Path.Combine(plan.GlobalDirectory, CrossMatchSolutionJson.FileName), right, sep, blend);
-        log.LogInformation("merge: {Rows} rows from {Tiles} tiles", n, results.Count);
-        return new PerStarProducts(match, Merge(results, r => r.Metallicity, n), dwarf ? Merge(results, r => r.Dwarf!, n) : null);
+        log.LogInformation("merge: {Rows} rows from {Tiles} tiles", n, paths.Length);
+        return new PerStarProducts(match, main.Result(), dw?.Result());
     }
 
-    /// <summary>One whole-field <see cref="MetallicityResult"/> from the tiles' (likelihood windows laid out in row order).</summary>
-    private static MetallicityResult Merge(List<TileResult> tiles, Func<TileResult, MetallicityResult> pick, int n)
+    /// <summary>A whole-field <see cref="MetallicityResult"/> filled tile by tile (windows laid out in tile order).</summary>
+    private sealed class Store(int n, long values)
     {
-        var feh = new double[n];
-        var lo = new double[n];
-        var hi = new double[n];
-        var lim = new double[n];
-        var side = new FehLimitSide[n];
-        var status = new MetallicityStatus[n];
-        var start = new int[n];
-        var length = new int[n];
-        var source = new (int Tile, int Star)[n];
-        if (tiles.Count == 0) throw new InputException("the plan has no tiles");
-        var first = pick(tiles[0]);
-        for (int t = 0; t < tiles.Count; t++)
+        private readonly double[] _feh = new double[n], _lo = new double[n], _hi = new double[n], _lim = new double[n];
+        private readonly FehLimitSide[] _side = new FehLimitSide[n];
+        private readonly MetallicityStatus[] _status = new MetallicityStatus[n];
+        private readonly int[] _start = new int[n], _length = new int[n];
+        private readonly long[] _offset = new long[n];
+        private readonly float[] _values = values <= Array.MaxLength ? new float[values]
+            : throw new MethodException($"the stored likelihoods need {values} values, more than one array holds; use a coarser grid_step");
+        private long _used;
+        private MetallicityResult? _first;
+
+        public void Add(int[] rows, MetallicityResult m, int tile, string path)
         {
-            var m = pick(tiles[t]);
             var l = m.Likelihoods;
-            if (l.GridMin != first.Likelihoods.GridMin || l.GridStep != first.Likelihoods.GridStep || l.GridCount != first.Likelihoods.GridCount
-                || m.EnsembleMembers != first.EnsembleMembers || m.ColourNodeStep != first.ColourNodeStep)
-                throw new InputException($"tile {tiles[t].TileIndex} was run with another [Fe/H] grid or calibration than tile {tiles[0].TileIndex}: run the tiles again");
-            var rows = tiles[t].Rows;
+            if (_first is { } f && (l.GridMin != f.Likelihoods.GridMin || l.GridStep != f.Likelihoods.GridStep || l.GridCount != f.Likelihoods.GridCount
+                                    || m.EnsembleMembers != f.EnsembleMembers || m.ColourNodeStep != f.ColourNodeStep))
+                throw new InputException($"tile {tile} was run with another [Fe/H] grid or calibration than the tiles before it: run the tiles again", file: path);
+            _first ??= m;
             for (int k = 0; k < rows.Length; k++)
             {
                 int i = rows[k];
-                feh[i] = m.Feh[k]; lo[i] = m.FehLo[k]; hi[i] = m.FehHi[k]; lim[i] = m.FehLimit[k];
-                side[i] = m.LimitSide[k]; status[i] = m.Status[k];
-                start[i] = l.Start[k]; length[i] = l.Length[k];
-                source[i] = (t, k);
+                _feh[i] = m.Feh[k]; _lo[i] = m.FehLo[k]; _hi[i] = m.FehHi[k]; _lim[i] = m.FehLimit[k];
+                _side[i] = m.LimitSide[k]; _status[i] = m.Status[k];
+                _start[i] = l.Start[k]; _length[i] = l.Length[k];
+                if (l.Length[k] == 0) continue;
+                var w = l.Window(k);
+                if (_used + w.Length > _values.LongLength) throw new InputException("the tile holds more likelihood values than its head says", file: path);
+                _offset[i] = _used;
+                w.CopyTo(_values.AsSpan((int)_used, w.Length));
+                _used += w.Length;
             }
         }
-        var offset = new long[n];
-        long total = 0;
-        for (int i = 0; i < n; i++) { offset[i] = length[i] > 0 ? total : 0; total += length[i]; }
-        if (total > Array.MaxLength) throw new MethodException($"the stored likelihoods need {total} values, more than one array holds; use a coarser grid_step");
-        var values = new float[total];
-        for (int i = 0; i < n; i++)
+
+        public MetallicityResult Result()
         {
-            if (length[i] == 0) continue;
-            var (t, k) = source[i];
-            pick(tiles[t]).Likelihoods.Window(k).CopyTo(values.AsSpan((int)offset[i], length[i]));
-        }
-        return new MetallicityResult
-        {
-            Feh = feh, FehLo = lo, FehHi = hi, FehLimit = lim, LimitSide = side, Status = status, Counts = TileResultFile.CountsOf(status),
-            ColourNodeStep = first.ColourNodeStep, EnsembleMembers = first.EnsembleMembers,
-            Likelihoods = new FehLikelihoods
+            var f = _first!;
+            return new MetallicityResult
             {
-                GridMin = first.Likelihoods.GridMin, GridStep = first.Likelihoods.GridStep, GridCount = first.Likelihoods.GridCount,
-                Offset = offset, Start = start, Length = length, Values = values,
-            },
-        };
+                Feh = _feh, FehLo = _lo, FehHi = _hi, FehLimit = _lim, LimitSide = _side, Status = _status, Counts = TileResultFile.CountsOf(_status),
+                ColourNodeStep = f.ColourNodeStep, EnsembleMembers = f.EnsembleMembers,
+                Likelihoods = new FehLikelihoods
+                {
+                    GridMin = f.Likelihoods.GridMin, GridStep = f.Likelihoods.GridStep, GridCount = f.Likelihoods.GridCount,
+                    Offset = _offset, Start = _start, Length = _length, Values = _values,
+                },
+            };
+        }
     }
 }

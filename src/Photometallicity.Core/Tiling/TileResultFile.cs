@@ -15,7 +15,7 @@ public static class TileResultFile
 {
     public const string FileName = "result.bin";
     private const string Magic = "PHOTOMETALLICITY-TILE";
-    private const int Version = 1;
+    private const int Version = 2;
 
     public static void Write(TileResult r, string path)
     {
@@ -25,6 +25,10 @@ public static class TileResultFile
             w.Write(Magic);
             w.Write(Version);
             w.Write(r.TileIndex);
+            w.Write(r.Count);
+            w.Write(WindowTotal(r.Metallicity));
+            w.Write(r.Dwarf is not null);
+            w.Write(r.Dwarf is { } dw ? WindowTotal(dw) : 0L);
             Put(w, r.Rows);
             Put(w, r.RightIndex);
             Put(w, r.SeparationArcsec);
@@ -35,24 +39,52 @@ public static class TileResultFile
         });
     }
 
-    public static TileResult Read(string path)
+    /// <summary>The head of a result file: tile, owned rows, and the stored likelihood values (main, dwarf), read without the arrays.</summary>
+    public readonly record struct Header(int TileIndex, int Rows, long WindowValues, bool HasDwarf, long DwarfWindowValues);
+
+    public static Header ReadHeader(string path)
+    {
+        using var stream = Open(path);
+        using var rd = new BinaryReader(stream, Encoding.UTF8);
+        return ReadHeader(rd, path);
+    }
+
+    private static FileStream Open(string path)
     {
         if (!File.Exists(path)) throw new InputException("the tile has no result: run the 'tile' verb for it first (or check its log)", file: path);
+        return new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 20);
+    }
+
+    private static Header ReadHeader(BinaryReader rd, string path)
+    {
         try
         {
-            using var stream = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 20);
-            using var rd = new BinaryReader(stream, Encoding.UTF8);
             if (rd.ReadString() != Magic) throw new InputException("not a tile result file", file: path);
             int version = rd.ReadInt32();
             if (version != Version) throw new InputException($"tile result format version {version}; this program reads version {Version}", file: path);
-            int index = rd.ReadInt32();
+            return new Header(rd.ReadInt32(), rd.ReadInt32(), rd.ReadInt64(), rd.ReadBoolean(), rd.ReadInt64());
+        }
+        catch (EndOfStreamException)
+        {
+            throw new InputException("tile result file is truncated", file: path);
+        }
+    }
+
+    public static TileResult Read(string path)
+    {
+        using var stream = Open(path);
+        using var rd = new BinaryReader(stream, Encoding.UTF8);
+        var head = ReadHeader(rd, path);
+        try
+        {
+            int index = head.TileIndex;
             var rows = Get<int>(rd);
             var right = Get<int>(rd);
             var sep = Get<double>(rd);
             var blend = Get<bool>(rd);
             var feh = GetFeh(rd);
             var dwarf = rd.ReadBoolean() ? GetFeh(rd) : null;
-            if (right.Length != rows.Length || sep.Length != rows.Length || blend.Length != rows.Length || feh.Count != rows.Length || (dwarf is not null && dwarf.Count != rows.Length))
+            if (rows.Length != head.Rows || feh.Likelihoods.Values.LongLength != head.WindowValues || right.Length != rows.Length || sep.Length != rows.Length || blend.Length != rows.Length || feh.Count != rows.Length || (dwarf is not null && dwarf.Count != rows.Length))
                 throw new InputException("tile result arrays disagree in length", file: path);
             return new TileResult { TileIndex = index, Rows = rows, RightIndex = right, SeparationArcsec = sep, Blend = blend, Metallicity = feh, Dwarf = dwarf };
         }
@@ -60,6 +92,13 @@ public static class TileResultFile
         {
             throw new InputException("tile result file is truncated", file: path);
         }
+    }
+
+    private static long WindowTotal(MetallicityResult m)
+    {
+        long total = 0;
+        for (int i = 0; i < m.Likelihoods.StarCount; i++) total += m.Likelihoods.Length[i];
+        return total;
     }
 
     private static void PutFeh(BinaryWriter w, MetallicityResult m)
@@ -79,9 +118,7 @@ public static class TileResultFile
         Put(w, l.Start);
         Put(w, l.Length);
         // Windows in star order, whatever order the assigner laid them out in.
-        long total = 0;
-        for (int i = 0; i < l.StarCount; i++) total += l.Length[i];
-        w.Write(total);
+        w.Write(WindowTotal(m));
         for (int i = 0; i < l.StarCount; i++) w.Write(MemoryMarshal.AsBytes(l.Window(i)));
     }
 

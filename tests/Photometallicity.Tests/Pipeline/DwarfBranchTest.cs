@@ -17,8 +17,37 @@ public class DwarfBranchTest
     public void StandardsWithLogG_GiveADwarfCalibrationThatFitsTheDwarfs()
     {
         using var dir = new TempDir();
+        var (field, configPath) = WriteField(dir.Path);
+        var truth = field.StarTruth;
+        var broad = field.Broadband;
+        bool[] member = Enumerable.Range(0, truth.RowCount).Select(i => truth.Require("is_member").GetDouble(i) == 1).ToArray();
+        double[] fehTrue = truth.RequireDoubles("feh_true"), blue = broad.RequireDoubles("b480");
+        double[] colour = truth.RequireDoubles("colour0_true");
+
+        var result = PipelineRunner.Run(ConfigLoader.Load(configPath), scope: new RunScope(PipelineStage.Metallicity));
+
+        Assert.NotNull(result.Dwarf);
+        Assert.All(result.Calibration!.PerStandard.Where(v => v.Id.StartsWith('D')), v => Assert.False(v.Accepted));
+        var rows = result.Stars!;
+        Assert.NotNull(rows.FehDwarf);
+        double giantErr = 0, dwarfErr = 0;
+        int count = 0;
+        for (int i = 0; i < rows.Count; i++)
+        {
+            if (member[i] || !double.IsFinite(rows.Feh[i]) || !double.IsFinite(rows.FehDwarf![i])) continue;
+            giantErr += Math.Abs(rows.Feh[i] - fehTrue[i]);
+            dwarfErr += Math.Abs(rows.FehDwarf[i] - fehTrue[i]);
+            count++;
+        }
+        Assert.True(count > 50, $"{count} foreground dwarfs with both values");
+        Assert.True(dwarfErr < giantErr, $"mean |error| dwarf branch {dwarfErr / count:F3}, giant branch {giantErr / count:F3} dex");
+    }
+
+    /// <summary>The invented field with 40 foreground dwarfs (log g 4.5) added to the giant standards (log g 2), and its config.</summary>
+    public static (DemoField Field, string ConfigPath) WriteField(string directory)
+    {
         var field = DemoGenerator.Generate(6000, 21);
-        string configPath = DemoWriter.Write(field, dir.Path, 21);
+        string configPath = DemoWriter.Write(field, directory, 21);
         var truth = field.StarTruth;
         var broad = field.Broadband;
         bool[] member = Enumerable.Range(0, truth.RowCount).Select(i => truth.Require("is_member").GetDouble(i) == 1).ToArray();
@@ -44,26 +73,10 @@ public class DwarfBranchTest
         }
         var table = new Table([new Column<string>("star", ids), new Column<double>("ra", ra), new Column<double>("dec", dec),
             new Column<double>("feh_spec", feh), new Column<double>("feh_spec_err", err), new Column<double>("logg", logg)]);
-        CatalogueIO.Write(table, Path.Combine(dir.Path, "standards.csv"));
+        CatalogueIO.Write(table, Path.Combine(directory, "standards.csv"));
         File.WriteAllText(configPath, File.ReadAllText(configPath).Replace("\"feh_err\": \"feh_spec_err\"", "\"feh_err\": \"feh_spec_err\", \"logg\": \"logg\"")
             .Replace("\"bootstrap\": 300", "\"bootstrap\": 50"));
 
-        var result = PipelineRunner.Run(ConfigLoader.Load(configPath), scope: new RunScope(PipelineStage.Metallicity));
-
-        Assert.NotNull(result.Dwarf);
-        Assert.All(result.Calibration!.PerStandard.Where(v => v.Id.StartsWith('D')), v => Assert.False(v.Accepted));
-        var rows = result.Stars!;
-        Assert.NotNull(rows.FehDwarf);
-        double giantErr = 0, dwarfErr = 0;
-        int count = 0;
-        for (int i = 0; i < rows.Count; i++)
-        {
-            if (member[i] || !double.IsFinite(rows.Feh[i]) || !double.IsFinite(rows.FehDwarf![i])) continue;
-            giantErr += Math.Abs(rows.Feh[i] - fehTrue[i]);
-            dwarfErr += Math.Abs(rows.FehDwarf[i] - fehTrue[i]);
-            count++;
-        }
-        Assert.True(count > 50, $"{count} foreground dwarfs with both values");
-        Assert.True(dwarfErr < giantErr, $"mean |error| dwarf branch {dwarfErr / count:F3}, giant branch {giantErr / count:F3} dex");
+        return (field, configPath);
     }
 }
