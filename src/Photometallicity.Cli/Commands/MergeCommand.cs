@@ -15,6 +15,7 @@ internal static class MergeCommand
         cmd.SetAction(pr => CommandRunner.Execute(ctx, () =>
         {
             var plan = TilePlanJson.Read(pr.GetValue(work)!);
+            TilePlanChecks.RequireUnchanged(plan, configOnly: false);
             var perStar = TileMerger.Gather(plan, ctx.Logger("merge"));
             PipelineExecution.RunAndWrite(ctx, plan.ConfigPath, pr.GetValue(outDir) ?? plan.OutputDirectory, new RunScope { Precomputed = perStar });
             return 0;

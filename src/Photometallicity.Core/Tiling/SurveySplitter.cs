@@ -67,6 +67,7 @@ public static class SurveySplitter
             MarginArcsec = margin.Arcseconds,
             BroadbandRows = b.RowCount,
             NarrowbandRows = n.RowCount,
+            Checksums = inputs.Checksums.Take(3).ToList(),
             Tiles = Enumerable.Range(0, partition.Pixels.Count).Select(t => new TileEntry
             {
                 Index = t,

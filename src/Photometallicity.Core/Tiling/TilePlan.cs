@@ -46,6 +46,9 @@ public sealed record TilePlan
     public required long BroadbandRows { get; init; }
     public required long NarrowbandRows { get; init; }
 
+    /// <summary>SHA-256 of the config and of the broadband and narrow-band files at the split (path, checksum).</summary>
+    public IReadOnlyList<(string Path, string Sha256)> Checksums { get; init; } = [];
+
     /// <summary>The non-empty tiles, in increasing pixel order.</summary>
     public required IReadOnlyList<TileEntry> Tiles { get; init; }
 

@@ -24,7 +24,9 @@ public static class TilePlanJson
         {
             ["kind"] = Kind, ["version"] = Version, ["config"] = plan.ConfigPath, ["output_directory"] = plan.OutputDirectory,
             ["order"] = plan.Order, ["margin_arcsec"] = plan.MarginArcsec,
-            ["broadband_rows"] = plan.BroadbandRows, ["narrowband_rows"] = plan.NarrowbandRows, ["tiles"] = tiles,
+            ["broadband_rows"] = plan.BroadbandRows, ["narrowband_rows"] = plan.NarrowbandRows,
+            ["checksums"] = new JsonArray(plan.Checksums.Select(c => (JsonNode)new JsonObject { ["path"] = c.Path, ["sha256"] = c.Sha256 }).ToArray()),
+            ["tiles"] = tiles,
         };
         AtomicFile.WriteAllText(path, o.ToJsonString(new JsonSerializerOptions { WriteIndented = true }) + "\n");
     }
@@ -73,8 +75,16 @@ public static class TilePlanJson
             if (e.Index != i) throw new InputException($"key 'tiles[{i}].index' is {e.Index}; tiles must be numbered 0, 1, 2, ... in order", file: path);
             list.Add(e);
         }
+        var sums = new List<(string, string)>();
+        if (o["checksums"] is JsonArray cs)
+            for (int i = 0; i < cs.Count; i++)
+            {
+                var c = cs[i] as JsonObject ?? throw new InputException($"key 'checksums[{i}]' is not an object", file: path);
+                sums.Add((Get<string>(c, "path", $"checksums[{i}]."), Get<string>(c, "sha256", $"checksums[{i}].")));
+            }
         return new TilePlan
         {
+            Checksums = sums,
             WorkDirectory = workDirectory,
             ConfigPath = Get<string>(o, "config", ""),
             OutputDirectory = Get<string>(o, "output_directory", ""),
@@ -84,5 +94,20 @@ public static class TilePlanJson
             NarrowbandRows = Get<long>(o, "narrowband_rows", ""),
             Tiles = list,
         };
+    }
+}
+
+/// <summary>Refuses to go on when the config or the catalogues changed after the split.</summary>
+public static class TilePlanChecks
+{
+    /// <summary>Compares the files' checksums now with the plan's (only the config when <paramref name="configOnly"/>).</summary>
+    public static void RequireUnchanged(TilePlan plan, bool configOnly)
+    {
+        foreach (var (file, sha) in configOnly ? plan.Checksums.Take(1) : plan.Checksums)
+        {
+            if (!File.Exists(file)) throw new InputException("an input of the split is gone", file: file);
+            if (Pipeline.Checksums.Sha256(file) != sha)
+                throw new InputException($"the file changed after the split (SHA-256 differs from plan.json's); run 'split' again", file: file);
+        }
     }
 }

@@ -23,6 +23,7 @@ public static class TileRunner
         if (index < 0 || index >= plan.Tiles.Count)
             throw new InputException($"tile {index} does not exist: the plan has tiles 0 to {plan.Tiles.Count - 1}", file: Path.Combine(plan.WorkDirectory, TilePlan.FileName));
         var clock = Stopwatch.StartNew();
+        TilePlanChecks.RequireUnchanged(plan, configOnly: true);
         var config = ConfigLoader.Load(plan.ConfigPath);
         string dir = plan.TileDirectory(index);
         var broad = ReadTable(Path.Combine(dir, TileFiles.Broadband), config.Broadband.IdColumn);
