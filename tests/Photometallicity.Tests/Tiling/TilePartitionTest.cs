@@ -95,8 +95,8 @@ public class TilePartitionTest
     [Fact]
     public void MatchCheck_RefusesAChainThatReachesTheOuterRing()
     {
-        // Left 0 (owned) and 1 (ring 2) compete for right 0: the component reaches the outer ring.
-        var left = UnitVectors.FromDegrees([10.0, 10.0002], [10.0, 10.0]);
+        // Left 0 (owned) and 1 (ring 2, closer) compete for right 0: the chain of earlier pairs reaches the outer ring.
+        var left = UnitVectors.FromDegrees([10.0, 10.00015], [10.0, 10.0]);
         var right = UnitVectors.FromDegrees([10.0001], [10.0]);
         var tree = SkyKdTree.Build(right);
         double chord = SkySeparation.Chord(Angle.FromArcseconds(1.0));
@@ -105,6 +105,23 @@ public class TilePartitionTest
         var e = Assert.Throws<Errors.MethodException>(() => TileMatchCheck.Require(pairs, [0, 2], [1], 3));
         Assert.Contains("tile 3", e.Message);
         TileMatchCheck.Require(pairs, [0, 1], [1], 3);
+    }
+
+    [Fact]
+    public void LongestChain_CountsPairsThatEachComeBeforeTheLast()
+    {
+        // Along a line of Dec at RA 10: L0 at 0", R0 at 0.9", L1 at 1.4", R1 at 1.7"; pairs within 1":
+        // (L1,R1) 0.3" then (L1,R0) 0.5" then (L0,R0) 0.9": a chain of 3.
+        double Dec(double arcsec) => 10 + arcsec / 3600;
+        var left = UnitVectors.FromDegrees([10.0, 10.0], [Dec(0), Dec(1.4)]);
+        var right = UnitVectors.FromDegrees([10.0, 10.0], [Dec(0.9), Dec(1.7)]);
+        double chord = SkySeparation.Chord(Angle.FromArcseconds(1.0));
+        var pairs = CandidatePairs.Find(SkyKdTree.Build(right), left, chord * chord);
+        Assert.Equal(3, pairs.PairCount);
+        Assert.Equal(3, CandidateChains.LongestChain(pairs, 2));
+        // Ring 2 on L0 is harmless for an owned L1 (L0's pair comes after L1's) but not the other way round.
+        TileMatchCheck.Require(pairs, [2, 0], [1, 1], 0);
+        Assert.Throws<Errors.MethodException>(() => TileMatchCheck.Require(pairs, [0, 2], [1, 1], 0));
     }
 
     [Theory]
