@@ -38,5 +38,6 @@ public static class CliApp
         yield return ReportCommand.Create(ctx);
         yield return ConvertCommand.Create(ctx);
         yield return HealpixCommand.Create(ctx);
+        yield return BatchCommand.Create(ctx);
     }
 }
