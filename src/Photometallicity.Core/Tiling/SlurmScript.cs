@@ -139,7 +139,20 @@ public static class SlurmScript
         s.Append("rc=0\n");
         s.Append("merge_job=$(sbatch \"${merge_args[@]}\" --wait \"$dir/").Append(MergeFileName).Append("\") || rc=$?\n");
         s.Append("merge_job=${merge_job%%;*}\n");
-        s.Append("echo \"merge: job ${merge_job:-?} ended with exit code $rc (log: $dir/logs/merge.out)\"\n");
+        // sbatch --wait exits 0 for a job cancelled before it ran (as when a tile fails and the dependency can
+        // never be met): the job's final state decides. scontrol knows it for MinJobAge after the end (300 s
+        // by default), sacct where accounting is on.
+        s.Append("state=\"\"\n");
+        s.Append("if [ -n \"$merge_job\" ]; then\n");
+        s.Append("  state=$(scontrol show job \"$merge_job\" -o 2>/dev/null | sed -n 's/.*JobState=\\([A-Z_]*\\).*/\\1/p' || true)\n");
+        s.Append("  [ -n \"$state\" ] || state=$(sacct -n -X -P -j \"$merge_job\" -o State 2>/dev/null | head -n 1 | cut -d' ' -f1 || true)\n");
+        s.Append("fi\n");
+        s.Append("if [ -z \"$state\" ]; then\n");
+        s.Append("  echo \"submit.sh: cannot read the final state of job ${merge_job:-?}; going by sbatch's exit code\" >&2\n");
+        s.Append("elif [ \"$state\" != COMPLETED ] && [ \"$rc\" -eq 0 ]; then\n");
+        s.Append("  rc=1\n");
+        s.Append("fi\n");
+        s.Append("echo \"merge: job ${merge_job:-?} ended ${state:-(state unknown)}, exit code $rc (log: $dir/logs/merge.out)\"\n");
         s.Append("[ \"$rc\" -eq 0 ] || echo \"submit.sh: the merge did not succeed; if it never ran, a tile task failed: see $dir/logs/tile-N.out\" >&2\n");
         s.Append("exit \"$rc\"\n");
         return s.ToString();

@@ -135,6 +135,9 @@ public class SlurmScriptTest
             $"{{ echo \"call $n\"; echo \"cwd $PWD\"; printf 'arg %s\\n' \"$@\"; }} >> '{log}'\n" +
             "echo \"$((100 + n));pmci\"\n" +
             "for a in \"$@\"; do [ \"$a\" = --wait ] && exit \"${FAKE_MERGE_RC:-0}\"; done\nexit 0\n");
+        // A stand-in scontrol: 'show job ID -o' gives the job's final state on one line, as the real one does.
+        ShellRun.WriteScript(Path.Combine(fakeBin, "scontrol"),
+            "echo \"JobId=$3 JobName=m UserId=u(0) JobState=${FAKE_MERGE_STATE:-COMPLETED} Reason=None Dependency=(null)\"\n");
         var env = new Dictionary<string, string> { ["PATH"] = fakeBin + ":/usr/bin:/bin" };
 
         var r = ShellRun.Bash(written.SubmitScript, env);
@@ -149,13 +152,27 @@ public class SlurmScriptTest
         Assert.Contains("merge: job 102", r.Out);
 
         File.Delete(log);
-        env["FAKE_MERGE_RC"] = "3";
         r = ShellRun.Bash(written.SubmitScript, env, "--wait");
-        Assert.Equal(3, r.ExitCode);
+        Assert.True(r.ExitCode == 0, r.Error);
         Assert.Contains("arg --wait", File.ReadAllLines(log));
         Assert.Contains("arg --dependency=afterok:101", File.ReadAllLines(log));
-        Assert.Contains("merge: job 102 ended with exit code 3", r.Out);
+        Assert.Contains("merge: job 102 ended COMPLETED, exit code 0", r.Out);
+
+        File.Delete(log);
+        env["FAKE_MERGE_RC"] = "3";
+        env["FAKE_MERGE_STATE"] = "FAILED";
+        r = ShellRun.Bash(written.SubmitScript, env, "--wait");
+        Assert.Equal(3, r.ExitCode);
+        Assert.Contains("merge: job 102 ended FAILED, exit code 3", r.Out);
         Assert.Contains("the merge did not succeed", r.Error);
+
+        // sbatch --wait exits 0 for a job cancelled before it ran (a tile failed): the state decides.
+        File.Delete(log);
+        env["FAKE_MERGE_RC"] = "0";
+        env["FAKE_MERGE_STATE"] = "CANCELLED";
+        r = ShellRun.Bash(written.SubmitScript, env, "--wait");
+        Assert.Equal(1, r.ExitCode);
+        Assert.Contains("merge: job 102 ended CANCELLED, exit code 1", r.Out);
 
         r = ShellRun.Bash(written.SubmitScript, env, "--bogus");
         Assert.Equal(2, r.ExitCode);
