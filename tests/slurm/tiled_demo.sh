@@ -11,7 +11,7 @@
 set -uo pipefail
 
 exe=${PHOTOMETALLICITY:?set PHOTOMETALLICITY to the built photometallicity executable}
-exe=$(readlink -f "$exe")
+exe=$(readlink -f "$exe")   # absolute: the nodes run it from the work directory
 order=${TILED_DEMO_ORDER:-6}
 stars=${TILED_DEMO_STARS:-20000}
 timeout_s=${TILED_DEMO_TIMEOUT:-600}
@@ -46,7 +46,7 @@ echo "plan: $tiles tiles"
 
 echo "== batch"
 # shellcheck disable=SC2086
-if ! "$exe" batch "$work" --out "$merged" --job-name "$name" ${TILED_DEMO_BATCH_ARGS:-} 2>&1; then fail "batch failed"; finish; fi
+if ! "$exe" batch "$work" --exe "$exe" --out "$merged" --job-name "$name" ${TILED_DEMO_BATCH_ARGS:-} 2>&1; then fail "batch failed"; finish; fi
 
 echo "== submit.sh --wait (timeout ${timeout_s} s)"
 start=$(date +%s)
