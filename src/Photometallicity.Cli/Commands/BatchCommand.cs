@@ -10,17 +10,17 @@ internal static class BatchCommand
 {
     public static Command Create(CliContext ctx)
     {
-        var work = new Argument<string>("WORKDIR") { Description = "Work directory written by 'split' (holds plan.json); the scripts go to WORKDIR/slurm, the job logs to WORKDIR/slurm/logs." };
-        var partition = new Option<string?>("--partition") { Description = "Slurm partition to submit to (default: the cluster's default partition)." };
-        var account = new Option<string?>("--account") { Description = "Slurm account to charge (default: your default account)." };
-        var cpus = new Option<int>("--cpus-per-task") { Description = "CPUs per task, tile tasks and merge job alike.", DefaultValueFactory = _ => TaskResources.BenchmarkCpus };
-        var mem = new Option<long?>("--mem-per-task") { Description = "Memory per tile task in MiB (default: estimated from the largest tile's rows, with a 1.5x margin, at least 512 MiB)." };
-        var time = new Option<int?>("--time-per-task") { Description = "Wall-time limit per tile task in minutes (default: estimated from the largest tile's rows, with a 3x margin, at least 10 minutes)." };
-        var memMerge = new Option<long?>("--mem-merge") { Description = "Memory of the merge job in MiB (default: estimated from the whole field's rows, as for the tiles)." };
-        var timeMerge = new Option<int?>("--time-merge") { Description = "Wall-time limit of the merge job in minutes (default: estimated from the whole field's rows, as for the tiles)." };
-        var exe = new Option<string?>("--exe") { Description = "Absolute path of the photometallicity executable the nodes run (default: this program, as it is running now)." };
-        var outDir = new Option<string?>("--out") { Description = "Directory the merge job writes the run's outputs to (default: the plan's output directory, that of the config)." };
-        var jobName = new Option<string>("--job-name") { Description = "Job name prefix: the jobs are NAME-tiles and NAME-merge.", DefaultValueFactory = _ => "photometallicity" };
+        var work = new Argument<string>("WORKDIR") { Description = "Work directory written by 'split' (holds plan.json), at the same path on the nodes; the scripts go to WORKDIR/slurm, the job logs to WORKDIR/slurm/logs." };
+        var partition = new Option<string?>("--partition") { HelpName = "PARTITION", Description = "Slurm partition to submit to (default: the cluster's default partition)." };
+        var account = new Option<string?>("--account") { HelpName = "ACCOUNT", Description = "Slurm account to charge (default: your default account)." };
+        var cpus = new Option<int>("--cpus-per-task") { HelpName = "N", Description = "CPUs per task, tile tasks and merge job alike.", DefaultValueFactory = _ => TaskResources.BenchmarkCpus };
+        var mem = new Option<long?>("--mem-per-task") { HelpName = "MIB", Description = "Memory per tile task in MiB (default: estimated from the largest tile's rows, with a 1.5x margin, at least 512 MiB)." };
+        var time = new Option<int?>("--time-per-task") { HelpName = "MINUTES", Description = "Wall-time limit per tile task in minutes (default: estimated from the largest tile's rows, with a 3x margin, at least 10 minutes)." };
+        var memMerge = new Option<long?>("--mem-merge") { HelpName = "MIB", Description = "Memory of the merge job in MiB (default: estimated from the whole field's rows, as for the tiles)." };
+        var timeMerge = new Option<int?>("--time-merge") { HelpName = "MINUTES", Description = "Wall-time limit of the merge job in minutes (default: estimated from the whole field's rows, as for the tiles)." };
+        var exe = new Option<string?>("--exe") { HelpName = "PATH", Description = "The photometallicity executable the nodes run; must be reachable at the same path on them (default: this program, as it is running now)." };
+        var outDir = new Option<string?>("--out") { HelpName = "DIR", Description = "Directory the merge job writes the run's outputs to (default: the plan's output directory, that of the config)." };
+        var jobName = new Option<string>("--job-name") { HelpName = "NAME", Description = "Job name prefix: the jobs are NAME-tiles and NAME-merge.", DefaultValueFactory = _ => "photometallicity" };
         var cmd = new Command("batch", "Write Slurm scripts for a split work directory: a job array with one task per tile, a merge job that runs after every tile succeeded, and submit.sh that submits both.")
         {
             work, partition, account, cpus, mem, time, memMerge, timeMerge, exe, outDir, jobName,
@@ -35,6 +35,8 @@ internal static class BatchCommand
             {
                 string full = Path.GetFullPath(exePath);
                 if (!File.Exists(full)) throw new InputException($"--exe: no file '{full}'");
+                if (!OperatingSystem.IsWindows() && (File.GetUnixFileMode(full) & (UnixFileMode.UserExecute | UnixFileMode.GroupExecute | UnixFileMode.OtherExecute)) == 0)
+                    throw new InputException($"--exe: '{full}' is not executable");
                 program = [full];
             }
             else program = RunningProgram();
@@ -68,7 +70,7 @@ internal static class BatchCommand
     {
         string mem = memGiven is null ? $"{r.MemoryMiB} MiB (estimated peak {r.EstimatedPeakMiB:0} MiB for {what})" : $"{r.MemoryMiB} MiB (as given)";
         string time = timeGiven is null ? $"{r.SlurmTime} (estimated {r.EstimatedSeconds:0} s)" : $"{r.SlurmTime} (as given)";
-        return FormattableString.Invariant($"{r.Cpus} CPUs, {mem}, wall time {time}");
+        return FormattableString.Invariant($"{r.Cpus} CPU{(r.Cpus == 1 ? "" : "s")}, {mem}, wall time {time}");
     }
 
     /// <summary>

@@ -6,6 +6,7 @@ using Photometallicity.Tiling;
 namespace Photometallicity.Tests.Cli;
 
 /// <summary>The 'batch' verb on a plan.json written with <see cref="TilePlanJson"/> in a scratch directory.</summary>
+[System.Runtime.Versioning.UnsupportedOSPlatform("windows")]
 public class BatchCommandTest
 {
     private static (string Work, string Exe) Setup(TempDir dir)
@@ -14,6 +15,7 @@ public class BatchCommandTest
         TilePlanJson.Write(TilePlanSamples.FourTiles(work), TilePlanJson.PathIn(work));
         string exe = dir.File("pm");
         File.WriteAllText(exe, "#!/bin/sh\n");
+        File.SetUnixFileMode(exe, UnixFileMode.UserRead | UnixFileMode.UserWrite | UnixFileMode.UserExecute);
         return (work, exe);
     }
 
@@ -46,7 +48,7 @@ public class BatchCommandTest
         string cwd = Environment.CurrentDirectory;
         var r = CliRun.Invoke("batch", work, "--exe", exe, "--mem-per-task", "1500", "--time-per-task", "75", "--cpus-per-task", "1", "--out", "merged");
         Assert.True(r.ExitCode == 0, r.Error);
-        Assert.Contains("1 CPUs, 1500 MiB (as given), wall time 01:15:00 (as given)", r.Error);
+        Assert.Contains("1 CPU, 1500 MiB (as given), wall time 01:15:00 (as given)", r.Error);
         string tiles = File.ReadAllText(Path.Combine(work, "slurm", "tiles.sbatch"));
         Assert.Contains("#SBATCH --mem=1500M\n", tiles);
         Assert.Contains("#SBATCH --time=01:15:00\n", tiles);
@@ -104,6 +106,19 @@ public class BatchCommandTest
         Assert.Equal(2, r.ExitCode);
         Assert.Contains(expected, r.Error);
         Assert.False(Directory.Exists(Path.Combine(work, "slurm")));
+    }
+
+    [Fact]
+    public void Batch_ExeNotExecutable_Exit2()
+    {
+        using var dir = new TempDir();
+        var (work, _) = Setup(dir);
+        string plain = dir.File("not a program");
+        File.WriteAllText(plain, "text");
+        File.SetUnixFileMode(plain, UnixFileMode.UserRead | UnixFileMode.UserWrite);
+        var r = CliRun.Invoke("batch", work, "--exe", plain);
+        Assert.Equal(2, r.ExitCode);
+        Assert.Contains($"--exe: '{plain}' is not executable", r.Error);
     }
 
     [Fact]
