@@ -41,5 +41,6 @@ public static class CliApp
         yield return SplitCommand.Create(ctx);
         yield return TileCommand.Create(ctx);
         yield return MergeCommand.Create(ctx);
+        yield return BatchCommand.Create(ctx);
     }
 }
