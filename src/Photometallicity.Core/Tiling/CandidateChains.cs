@@ -8,8 +8,10 @@ namespace Photometallicity.Tiling;
 /// whether pair e is accepted depends only on the pairs that share a source with e and come before it, and on theirs
 /// in turn: the pairs reachable from e along chains of adjacent pairs, each earlier than the one before. A tile
 /// reproduces the assignment of a source exactly when it holds the complete neighbourhood of every source on those
-/// chains (<see cref="TileMatchCheck"/>). The longest such chain, counted in pairs, times the largest pair length
-/// bounds how far away the sources that matter can be.
+/// chains (<see cref="TileMatchCheck"/>). <see cref="LargestReach"/> measures how far from a source those chains
+/// go: for every pair, the bounding box (in unit-vector space) of all sources on its chains is the box of its own two
+/// sources joined with the boxes of the earlier pairs adjacent to it, a dynamic programme over the pairs in increasing
+/// order; a left source's chains lie in the union of its pairs' boxes.
 /// </summary>
 public static class CandidateChains
 {
@@ -56,5 +58,54 @@ public static class CandidateChains
             longest = Math.Max(longest, depth);
         }
         return longest;
+    }
+
+    /// <summary>
+    /// The largest distance from a left source to a corner of the bounding box of every source on its chains (an
+    /// upper bound on how far from the source the sources that decide its match can lie), on the observed positions.
+    /// </summary>
+    public static Units.Angle LargestReach(CandidatePairs pairs, UnitVectors left, UnitVectors right)
+    {
+        int p = pairs.PairCount;
+        if (p == 0) return Units.Angle.FromRadians(0);
+        var leftOf = LeftOf(pairs);
+        var order = new int[p];
+        for (int k = 0; k < p; k++) order[k] = k;
+        Array.Sort(order, (a, b) => Compare(pairs, leftOf, a, b));
+        var atLeft = Boxes(left);
+        var atRight = Boxes(right);
+        Span<double> box = stackalloc double[6];
+        foreach (int k in order)
+        {
+            int l = leftOf[k], r = pairs.Right[k];
+            for (int d = 0; d < 6; d++)
+                box[d] = d < 3 ? Math.Min(atLeft[6 * l + d], atRight[6 * r + d]) : Math.Max(atLeft[6 * l + d], atRight[6 * r + d]);
+            box.CopyTo(atLeft.AsSpan(6 * l, 6));
+            box.CopyTo(atRight.AsSpan(6 * r, 6));
+        }
+        double worst = 0;
+        for (int i = 0; i < pairs.LeftCount; i++)
+        {
+            if (pairs.CountOf(i) == 0) continue;
+            double x = left.X[i], y = left.Y[i], z = left.Z[i];
+            var b = atLeft.AsSpan(6 * i, 6);
+            double dx = Math.Max(x - b[0], b[3] - x), dy = Math.Max(y - b[1], b[4] - y), dz = Math.Max(z - b[2], b[5] - z);
+            worst = Math.Max(worst, Math.Sqrt(dx * dx + dy * dy + dz * dz));
+        }
+        // The chord of the farthest corner; as an angle (2 asin(c/2)), which is never smaller.
+        return Units.Angle.FromRadians(2 * Math.Asin(Math.Min(1.0, worst / 2)));
+    }
+
+    /// <summary>Each point's degenerate box: min x, y, z then max x, y, z.</summary>
+    private static double[] Boxes(UnitVectors v)
+    {
+        var b = new double[6 * v.Count];
+        for (int i = 0; i < v.Count; i++)
+        {
+            b[6 * i] = b[6 * i + 3] = v.X[i];
+            b[6 * i + 1] = b[6 * i + 4] = v.Y[i];
+            b[6 * i + 2] = b[6 * i + 5] = v.Z[i];
+        }
+        return b;
     }
 }

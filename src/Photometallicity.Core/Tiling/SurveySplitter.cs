@@ -18,9 +18,10 @@ public sealed record SplitOptions(int Order, Angle? Margin = null);
 /// (astrometric offset, radius) and fits the calibrations (main and dwarf) exactly as 'run' does; these go to
 /// global/. It then writes each non-empty HEALPix tile's rows, with their margin, as FITS tables in tiles/NNNNN/,
 /// and last plan.json (so a split that stopped half-way has no plan and no tile will run on it).
-/// The margin is at least 1.2 x (match radius + the largest shift the offset correction applies) x the number of pairs
-/// on the longest chain of competing candidates (<see cref="CandidateChains"/>), plus 0.1 arcsec (1.2 and 0.1 are the
-/// program's choice: the pairs lie within the radius after the correction, the tiles are cut before it).
+/// The margin is at least the larger of 1.2 x (match radius + the largest shift the offset correction applies) and the
+/// farthest reach of any source's chains of competing candidates (<see cref="CandidateChains.LargestReach"/>, itself an
+/// upper bound), plus 0.1 arcsec (1.2 and 0.1 are the program's choice: the pairs lie within the radius after the
+/// correction, the tiles are cut before it).
 /// </summary>
 public static class SurveySplitter
 {
@@ -42,13 +43,14 @@ public static class SurveySplitter
         // competing candidates; the margin must hold every source on it as well as their own candidates.
         CrossMatcher.RunWith(bra, bdec, nra, ndec, solution, out var pairs, log);
         int chain = CandidateChains.LongestChain(pairs, nra.Length);
+        var chainReach = CandidateChains.LargestReach(pairs, UnitVectors.FromDegrees(bra, bdec), UnitVectors.FromDegrees(nra, ndec));
         double reach = solution.Radius.Radians + solution.LargestShift(FieldRadius(solution, nra, ndec)).Radians;
-        var needed = Angle.FromRadians(1.2 * reach * Math.Max(chain, 1) + Angle.FromArcseconds(0.1).Radians);
-        log.LogInformation("split: the longest chain of competing match candidates has {Chain} pairs; radius + offset correction {Reach:0.##} arcsec",
-            chain, Angle.FromRadians(reach).Arcseconds);
+        var needed = Angle.FromRadians(Math.Max(1.2 * reach, chainReach.Radians) + Angle.FromArcseconds(0.1).Radians);
+        log.LogInformation("split: the longest chain of competing match candidates has {Chain} pairs and reaches at most {ChainReach:0.##} arcsec from its source; radius + offset correction {Reach:0.##} arcsec",
+            chain, chainReach.Arcseconds, Angle.FromRadians(reach).Arcseconds);
         var margin = options.Margin ?? needed;
         if (margin.Radians < needed.Radians)
-            throw new InputException($"the margin of {margin.Arcseconds:0.###} arcsec is smaller than the {needed.Arcseconds:0.###} arcsec the cross-match needs (1.2 x (radius + offset correction) x the longest chain of competing candidates, plus 0.1 arcsec)");
+            throw new InputException($"the margin of {margin.Arcseconds:0.###} arcsec is smaller than the {needed.Arcseconds:0.###} arcsec the cross-match needs (the larger of 1.2 x (radius + offset correction) and the reach of the chains of competing candidates, plus 0.1 arcsec)");
         var partition = TilePartition.Build(options.Order, margin, bra, bdec, nra, ndec);
         log.LogInformation("split: {Tiles} tiles at HEALPix order {Order} (margin {Margin:0.##} arcsec, rings of order-{Fine} pixels)",
             partition.Pixels.Count, options.Order, margin.Arcseconds, partition.FineOrder);
