@@ -57,17 +57,14 @@ public static class CrossMatcher
             rawTree = SkyKdTree.Build(rightRaw);
             leftOrder.Wait();
             Phase(logger, "tree of the right catalogue", clock);
-            var (lXi, lEta) = plane!.ProjectAll(left);
-            var (rXi, rEta) = plane.ProjectAll(rightRaw);
-            Phase(logger, "projections", clock);
-            var solver = new OffsetSolver(plane, rawTree, left, lXi, lEta, rXi, rEta);
+            var solver = new OffsetSolver(plane!, rawTree, left, rightRaw);
             Phase(logger, "spatial order", clock);
             double search = (options.OffsetSearchRadius ?? Angle.FromArcseconds(Math.Max(3.0 * radius.Arcseconds, 3.0))).Radians;
             var start = solver.InitialEstimate(search);
             logger?.LogDebug("crossmatch: first offset estimate {Est} from the pair-offset histogram within {Search:0.##} arcsec",
                 start is { } s0 ? $"{s0.DXi * RadToArcsec:+0.000;-0.000}, {s0.DEta * RadToArcsec:+0.000;-0.000} arcsec" : "none (no peak)", search * RadToArcsec);
             Phase(logger, "first estimate done", clock);
-            double fieldRad = plane.RadiusDeg * Math.PI / 180.0;
+            double fieldRad = plane!.RadiusDeg * Math.PI / 180.0;
             outcome = solver.Iterate(start ?? AstrometricTransform.Identity, radius.Radians, options.MaxIterations,
                 options.SolveRotationScale, options.ConvergenceTolerance.Radians, options.MinSecurePairs, fieldRad);
             iterations = outcome.Iterations;
@@ -244,8 +241,7 @@ public static class CrossMatcher
         OffsetSolver.Correction? correction = null;
         if (solution.Plane is { } plane)
         {
-            var (rXi, rEta) = plane.ProjectAll(rightRaw);
-            correction = new OffsetSolver.Correction(plane, solution.Transform, rXi, rEta, rightRaw);
+            correction = new OffsetSolver.Correction(plane, solution.Transform, rightRaw);
         }
         var tree = correction is { } cr ? rawTree.WithMovedPoints(cr) : rawTree;
         var core = Pair(tree, left, leftRaDeg, leftDecDeg, rightRaw, correction, rightRaDeg.Length, solution.Radius, null, logger, clock);

@@ -22,19 +22,17 @@ internal sealed class OffsetSolver
     private readonly TangentPlane _plane;
     private readonly SkyKdTree _rightTree;
     private readonly UnitVectors _left;
-    private readonly double[] _lXi, _lEta, _rXi, _rEta;
+    private readonly Projection _lp, _rp;
     private readonly int _rightCount;
 
-    public OffsetSolver(TangentPlane plane, SkyKdTree rightTree, UnitVectors left, double[] lXi, double[] lEta, double[] rXi, double[] rEta)
+    public OffsetSolver(TangentPlane plane, SkyKdTree rightTree, UnitVectors left, UnitVectors rightRaw)
     {
         _plane = plane;
         _rightTree = rightTree;
         _left = left;
-        _lXi = lXi;
-        _lEta = lEta;
-        _rXi = rXi;
-        _rEta = rEta;
-        _rightCount = rXi.Length;
+        _lp = new Projection(plane, left);
+        _rp = new Projection(plane, rightRaw);
+        _rightCount = rightRaw.Count;
         _rows = FalseMatchRate.Sample(left.Order, SolutionRows);
     }
 
@@ -49,7 +47,7 @@ internal sealed class OffsetSolver
     public AstrometricTransform? InitialEstimate(double searchRadiusRad)
     {
         double bin = searchRadiusRad / HistogramHalf;
-        var h = PairHistograms.Offsets(_rightTree, _left, _lXi, _lEta, _rXi, _rEta, searchRadiusRad, bin, HistogramHalf, HistogramRows);
+        var h = PairHistograms.Offsets(_rightTree, _left, _lp, _rp, searchRadiusRad, bin, HistogramHalf, HistogramRows);
         int side = 2 * HistogramHalf + 1;
         // Background: median count of the bins well inside the search circle.
         var inside = new List<long>();
@@ -109,7 +107,7 @@ internal sealed class OffsetSolver
             {
                 if (pairs.CountOf(k) != 1) continue;
                 int r = pairs.Right[pairs.Start[k]];
-                if (rightUse[r] != 1 || !double.IsFinite(_rXi[r])) continue;
+                if (rightUse[r] != 1 || !double.IsFinite(_rp.At(r).Xi)) continue;
                 rows.Add(_rows[k]);
                 partner.Add(r);
             }
@@ -121,10 +119,8 @@ internal sealed class OffsetSolver
             var ry = new double[secure];
             for (int k = 0; k < secure; k++)
             {
-                lx[k] = _lXi[rows[k]];
-                ly[k] = _lEta[rows[k]];
-                rx[k] = _rXi[partner[k]];
-                ry[k] = _rEta[partner[k]];
+                (lx[k], ly[k]) = _lp.At(rows[k]);
+                (rx[k], ry[k]) = _rp.At(partner[k]);
             }
             // Rotation and scale need pairs spread over the field; below 20 pairs only the offset is fitted (program's choice).
             fit = AstrometricFit.Fit(lx, ly, rx, ry, rotationScale && secure >= 20);
@@ -151,7 +147,8 @@ internal sealed class OffsetSolver
             for (int k = lo; k < hi; k++)
             {
                 int i = _rows[k];
-                var (xi, eta) = t.Forward(_lXi[i], _lEta[i]);
+                var (lxi, leta) = _lp.At(i);
+                var (xi, eta) = t.Forward(lxi, leta);
                 (x[k], y[k], z[k]) = _plane.Deproject(xi, eta);
                 order[k] = k;
             }
@@ -160,18 +157,20 @@ internal sealed class OffsetSolver
     }
 
     /// <summary>The right catalogue corrected into the left frame by the inverse of t, one row at a time.</summary>
-    public Correction CorrectionOf(AstrometricTransform t, UnitVectors rightRaw) => new(_plane, t, _rXi, _rEta, rightRaw);
+    public Correction CorrectionOf(AstrometricTransform t, UnitVectors rightRaw) => new(_plane, t, rightRaw);
 
     /// <summary>A right row corrected into the left frame (rows the plane cannot hold are left as observed).</summary>
-    internal readonly struct Correction(TangentPlane plane, AstrometricTransform t, double[] rXi, double[] rEta, UnitVectors raw) : SkyKdTree.IPointMap
+    internal readonly struct Correction(TangentPlane plane, AstrometricTransform t, UnitVectors raw) : SkyKdTree.IPointMap
     {
-        public int Count => rXi.Length;
+        public int Count => raw.Count;
 
         [MethodImpl(MethodImplOptions.AggressiveInlining)]
         public (double X, double Y, double Z) Map(int i)
         {
-            if (!double.IsFinite(rXi[i])) return (raw.X[i], raw.Y[i], raw.Z[i]);
-            var (xi, eta) = t.Inverse(rXi[i], rEta[i]);
+            var (x, y, z) = (raw.X[i], raw.Y[i], raw.Z[i]);
+            var (rxi, reta) = plane.Project(x, y, z);
+            if (!double.IsFinite(rxi)) return (x, y, z);
+            var (xi, eta) = t.Inverse(rxi, reta);
             return plane.Deproject(xi, eta);
         }
     }

@@ -45,7 +45,7 @@ internal static class PairHistograms
     /// <paramref name="radiusRad"/>, in (2 half + 1)^2 square bins of side <paramref name="binRad"/> centred on zero.
     /// At most <paramref name="maxRows"/> left rows are used, evenly spread along the spatial order.
     /// </summary>
-    public static long[,] Offsets(SkyKdTree tree, UnitVectors left, double[] lXi, double[] lEta, double[] rXi, double[] rEta,
+    internal static long[,] Offsets(SkyKdTree tree, UnitVectors left, Projection leftPlane, Projection rightPlane,
         double radiusRad, double binRad, int half, int maxRows)
     {
         double chord = 2.0 * Math.Sin(0.5 * radiusRad);
@@ -65,8 +65,7 @@ internal static class PairHistograms
                 q[5 * k] = left.X[i];
                 q[5 * k + 1] = left.Y[i];
                 q[5 * k + 2] = left.Z[i];
-                q[5 * k + 3] = lXi[i];
-                q[5 * k + 4] = lEta[i];
+                (q[5 * k + 3], q[5 * k + 4]) = leftPlane.At(i);
             }
             for (int k = 0; k < m; k++)
             {
@@ -76,7 +75,8 @@ internal static class PairHistograms
                 for (int j = 0; j < found.Count; j++)
                 {
                     int r = found.Right[j];
-                    double dx = rXi[r] - xi, dy = rEta[r] - eta;
+                    var (rxi, reta) = rightPlane.At(r);
+                    double dx = rxi - xi, dy = reta - eta;
                     if (!double.IsFinite(dx) || !double.IsFinite(dy)) continue;
                     int bx = (int)Math.Round(dx / binRad) + half, by = (int)Math.Round(dy / binRad) + half;
                     if (bx >= 0 && bx < side && by >= 0 && by < side) h[by * side + bx]++;
