@@ -107,7 +107,11 @@ internal sealed class MixtureData
     {
         var w = Feh!.Window(i);
         double s = 0, sf = 0;
-        for (int j = 0; j < w.Length; j++) { s += w[j]; sf += w[j] * Feh.GridValue(Feh.Start[i] + j); }
+        for (int m = 0; m < w.Length; m++)
+        {
+            double v = (double)w[m];
+            s += v; sf += v * Feh.GridValue(Feh.GridIndex(i, m));
+        }
         return s > 0 ? sf / s : double.NaN;
     }
 }
