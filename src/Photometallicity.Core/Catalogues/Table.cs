@@ -32,6 +32,9 @@ public sealed class Table
 
     public IReadOnlyList<Column> Columns => _columns;
 
+    /// <summary>Every column name of the file, when a reader kept only some of them (<see cref="ReadOptions.Columns"/>); else null.</summary>
+    public IReadOnlyList<string>? ColumnsInFile { get; set; }
+
     /// <summary>Header keywords (name, value, comment) that writers carry where the format allows.</summary>
     public List<(string Key, string Value, string? Comment)> Metadata { get; } = new();
 
@@ -60,7 +63,7 @@ public sealed class Table
     {
         if (_byName.TryGetValue(name, out var c)) return c;
         string asked = configKey is null ? "" : $" (asked for by config key '{configKey}')";
-        string found = string.Join(", ", _columns.Select(x => x.Name));
+        string found = string.Join(", ", ColumnsInFile ?? _columns.Select(x => x.Name).ToList());
         throw new InputException($"no column named '{name}'{asked}; the columns found are: {found}", Source);
     }
 

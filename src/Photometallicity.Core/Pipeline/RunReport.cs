@@ -22,7 +22,11 @@ public static class RunReport
             return p;
         }
         var summary = JsonNode.Parse(File.ReadAllText(Need("summary.json")))!.AsObject();
-        var stars = CatalogueIO.Read(Need("stars.csv"), new ReadOptions { TextColumns = new HashSet<string> { "id", "narrow_id", "status" } });
+        // Only the columns the figures draw: the ids and status texts would cost a string per row.
+        var stars = CatalogueIO.Read(Need("stars.csv"), new ReadOptions
+        {
+            Columns = new HashSet<string> { "ra", "dec", "blue0", "red0", "colour0", "index0", "feh", "feh_lo", "feh_hi", "p_member" },
+        });
         var model = CalibrationJson.Read(Need("calibration.json"));
         string residualsPath = Path.Combine(directory, "calibration_residuals.csv");
         string plots = Path.Combine(directory, "plots");
