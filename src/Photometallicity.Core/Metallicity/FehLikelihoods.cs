@@ -1,24 +1,27 @@
 namespace Photometallicity.Metallicity;
 
 /// <summary>
-/// Each star's likelihood of [Fe/H] on a common grid (grid point j at GridMin + j * GridStep), stored compactly as point
-/// samples every <see cref="StrideOf"/> grid points: star i's m-th stored value, Values[Offset[i] + m] for
-/// m = 0 .. Length[i] - 1, is the likelihood at grid point Start[i] + m * k_i (k_i = Stride[i], 1 when Stride is null).
-/// Outside the stored span the likelihood is negligible (below 1e-6 of its peak) or zero (beyond the calibration's
-/// domain). Length[i] = 0 for stars without a usable likelihood. Values are densities in dex^-1, normalised so that
-/// sum_m Values * k_i * GridStep = 1: a consumer integrates with the midpoint rule at spacing k_i * GridStep
-/// (<see cref="Spacing"/>).
+/// Each star's likelihood of [Fe/H] on a common grid (grid point j at GridMin + j * GridStep), stored compactly as samples
+/// every <see cref="StrideOf"/> grid points: star i's m-th stored value, Values[Offset[i] + m] for m = 0 .. Length[i] - 1,
+/// belongs to grid point Start[i] + m * k_i (k_i = Stride[i], 1 when Stride is null). Outside the stored span the
+/// likelihood is negligible (below 1e-6 of its peak) or zero (beyond the calibration's domain). Length[i] = 0 for stars
+/// without a usable likelihood. Values are in dex^-1, normalised so that sum_m Values * k_i * GridStep = 1: a consumer
+/// sums value x integrand x <see cref="Spacing"/> over the stored values, which stands for the sum over every grid point.
 /// <para>
 /// Storage: the stride is chosen per star so that about three samples fall per standard deviation of the star's
-/// likelihood (k_i = round(sd_i / (3 GridStep)), at least 1; see the metallicity solver), which leaves ~32 stored points
-/// for a Gaussian likelihood cut at 1e-6 of its peak (+/- 5.3 sd) whatever its width, instead of up to the whole grid.
-/// For a smooth integrand the midpoint rule at spacing h errs by about 2 exp(-2 pi^2 s^2 / h^2) relative (Poisson
-/// summation; s is the width of the product of the likelihood and the integrated Gaussian), i.e. below 1e-7 for
-/// h = sd/3 as long as the Gaussian is not much narrower than the likelihood; a Gaussian far narrower than a
-/// star's likelihood (s &lt; h / 2) is resolved less well for that star, whose likelihood then carries little
-/// information about it anyway. Values are IEEE half precision (11-bit significand, relative rounding 2^-11 = 5e-4
-/// per value, random between neighbours; densities here lie between ~1e-7 and 1/GridStep, inside the half range).
-/// Per stored star: 2 bytes per value, plus 4 + 4 + 4 + 1 bytes of Offset, Start, Length and Stride.
+/// likelihood (k_i = round(sd_i / (3 GridStep)), at least 1), which leaves ~32 stored values for a Gaussian likelihood cut
+/// at 1e-6 of its peak (+/- 5.3 sd) whatever its width, instead of up to the whole grid. Interior values are the
+/// likelihood itself; the two end values carry end-corrected quadrature weights (Euler-Maclaurin, see
+/// StarSolver.EndCorrectedWeights), so that a likelihood cut sharply by the domain keeps its edge where the full grid has
+/// it. For a smooth integrand the sum at spacing h errs by about 2 exp(-2 pi^2 s^2 / h^2) relative (Poisson summation;
+/// s the width of the product of the likelihood and the integrated Gaussian): below 1e-7 for h = sd/3 unless the Gaussian
+/// is much narrower than the likelihood (s &lt; h / 2), and then that star carries little information about it anyway.
+/// On the committed samples/ field the membership step's MDF moves by 2.6e-5 dex in mean and 3.7e-5 dex in sigma from the
+/// every-grid-point storage, and no membership probability by more than 0.003 (FehLikelihoodCompactionTest).
+/// Values are IEEE half precision (11-bit significand: relative rounding 2^-11 = 5e-4 per value, independent between
+/// neighbours; the densities lie between ~1e-7 and 1/GridStep, inside the half range). Per stored star: 2 bytes per
+/// value (~60 bytes) plus 4 + 4 + 4 + 1 bytes of Offset, Start, Length and Stride, against up to 4 bytes per grid point
+/// (~1 kB per star on a faint field) when every grid point was kept as a float.
 /// </para>
 /// </summary>
 public sealed class FehLikelihoods
