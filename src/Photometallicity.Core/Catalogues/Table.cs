@@ -70,6 +70,13 @@ public sealed class Table
     /// <summary>The named column as doubles (NaN where missing), with the same error as <see cref="Require"/>.</summary>
     public double[] RequireDoubles(string name, string? configKey = null) => Require(name, configKey).ToDoubleArray();
 
+    /// <summary>
+    /// Like <see cref="RequireDoubles"/>, but a double column without a mask is returned as its own array instead of a copy
+    /// (8 bytes a row saved): for callers that only read it.
+    /// </summary>
+    public double[] ReadOnlyDoubles(string name, string? configKey = null) =>
+        Require(name, configKey) is Column<double> { Missing: null } c ? c.Values : Require(name, configKey).ToDoubleArray();
+
     /// <summary>A new table holding the given rows, in that order.</summary>
     public Table Select(ReadOnlySpan<int> rows)
     {

@@ -34,8 +34,8 @@ public static class StarRowsBuilder
         return new StarRows
         {
             Id = ids,
-            Ra = Shared(b, config.Broadband.RaColumn),
-            Dec = Shared(b, config.Broadband.DecColumn),
+            Ra = b.ReadOnlyDoubles(config.Broadband.RaColumn), // the input's own arrays: the rows are only read from here on
+            Dec = b.ReadOnlyDoubles(config.Broadband.DecColumn),
             NarrowId = nids,
             MatchSepArcsec = match.SeparationArcsec,
             MatchFlag = flag,
@@ -57,11 +57,4 @@ public static class StarRowsBuilder
             FehDwarfHi = dwarf?.FehHi,
         };
     }
-
-    /// <summary>
-    /// The input column's own array when it is a double column without a mask (what RequireDoubles would copy: 8 bytes a row
-    /// saved per column; the rows are only read from here on), else the copy.
-    /// </summary>
-    private static double[] Shared(Catalogues.Table t, string name) =>
-        t.Require(name) is Catalogues.Column<double> { Missing: null } c ? c.Values : t.RequireDoubles(name);
 }
