@@ -30,6 +30,12 @@ public sealed record ReadOptions
     /// </summary>
     public IReadOnlySet<string>? Columns { get; init; }
 
+    /// <summary>
+    /// CSV only: the <see cref="TextColumns"/> are read as <see cref="Utf8Column"/>s (UTF-8 bytes, ~13 bytes a row for a short
+    /// id instead of ~48 as strings) instead of columns of strings.
+    /// </summary>
+    public bool CompactText { get; init; }
+
     /// <summary>True when column <paramref name="name"/> is to be kept.</summary>
     public bool Keeps(string name) => Columns is null || Columns.Contains(name);
 }

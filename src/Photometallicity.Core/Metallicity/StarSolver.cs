@@ -175,11 +175,9 @@ internal sealed class StarSolver
     /// stands for the sum over every grid point of the span.
     /// The samples start at the span's low end, or end at its high end when that end is hard (cut by the calibration's
     /// domain at a sizeable value; a soft end is where the likelihood fell below the cut) and the low end soft or lower; with
-    /// two hard ends a stride down to 2/3 of the target that divides the span puts samples on both. Each interior sample stands for
-    /// k grid points; an end sample for the (k + 1)/2 on its side of the end's sampled point plus the r points between it and
-    /// the span's end, so that the weights add up to the span's L points (exact for a constant) and a hard edge stays where
-    /// the full grid has it instead of moving (k - 1)/2 points outwards (Euler-Maclaurin: sum_{j >= 0} f(j) =
-    /// k sum_m f(m k) - (k - 1)/2 f(0) + O(k^2 f'); the r points are taken at the end sample's value, also O(k^2 f')).
+    /// two hard ends a stride down to 2/3 of the target that divides the span puts samples on both. The samples carry the
+    /// end-corrected weights of <see cref="EndCorrectedWeights"/> (folded into the stored values), so that a hard edge stays
+    /// where the full grid has it instead of moving (k - 1)/2 points outwards, as equal weights would make it.
     /// </summary>
     private StoredWindow Store(int a, ReadOnlySpan<float> like, LikelihoodBuffer store)
     {

@@ -98,6 +98,7 @@ public sealed class InputCatalogues
         var t = CatalogueIO.Read(c.Path, new ReadOptions
         {
             MissingSentinels = c.MissingValues, Extension = c.Extension, NumericColumns = numeric, TextColumns = text, Columns = keep,
+            CompactText = true, // ids as UTF-8 bytes (Utf8Column): ~13 bytes a row instead of ~48 as strings
         });
         t.Require(c.RaColumn);
         t.Require(c.DecColumn);

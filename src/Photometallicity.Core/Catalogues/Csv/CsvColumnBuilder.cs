@@ -16,6 +16,7 @@ internal sealed class CsvColumnBuilder
     private enum Kind { AllMissing, Integer, Real, Boolean, Text }
 
     private readonly bool _forceNumeric;
+    private readonly Utf8Column.Builder? _compact; // forced text kept as UTF-8 bytes
     private readonly SentinelSet _sentinels;
     private Kind _kind;
     private BlockList<long>? _longs;
@@ -27,13 +28,14 @@ internal sealed class CsvColumnBuilder
     private bool _valueSeen;   // a cell that is not a missing marker has been seen (sentinels included)
     private bool _valueBefore; // ... before the current cell
 
-    public CsvColumnBuilder(string name, int index, bool forceText, bool forceNumeric, SentinelSet sentinels)
+    public CsvColumnBuilder(string name, int index, bool forceText, bool forceNumeric, SentinelSet sentinels, bool compactText = false)
     {
         Name = name;
         Index = index;
         _forceNumeric = forceNumeric;
         _sentinels = sentinels;
         if (forceText) _kind = Kind.Text;
+        if (forceText && compactText) _compact = new Utf8Column.Builder(name, 1 << 16);
     }
 
     public string Name { get; }
@@ -50,6 +52,13 @@ internal sealed class CsvColumnBuilder
     public void Add(ReadOnlySpan<byte> cell, CsvReader reader, string path, long row)
     {
         int i = _count;
+        if (_compact is not null)
+        {
+            if (CsvCells.IsMissingToken(cell) && !CsvCells.IsQuotedEmpty(reader.GetRawSpan(Index))) _compact.AddMissing();
+            else _compact.Add(cell);
+            _count++;
+            return;
+        }
         if (_kind == Kind.Text)
         {
             _strings ??= new();
@@ -115,6 +124,7 @@ internal sealed class CsvColumnBuilder
     public Column ToColumn()
     {
         int n = _count;
+        if (_compact is not null) return _compact.ToColumn();
         bool[]? mask = _missing?.ToArray(n);
         _missing = null;
         switch (_kind)

@@ -96,7 +96,7 @@ public static class CsvTableReader
             string name = headers[c].Trim();
             if (name.Length == 0) throw new InputException(CsvMessages.EmptyHeaderName(c + 1), path);
             if (!first.TryAdd(name, c + 1)) throw new InputException(CsvMessages.DuplicateHeaderName(c + 1, name, first[name]), path);
-            builders[c] = new CsvColumnBuilder(name, c, options.TextColumns.Contains(name), options.NumericColumns.Contains(name), sentinels);
+            builders[c] = new CsvColumnBuilder(name, c, options.TextColumns.Contains(name), options.NumericColumns.Contains(name), sentinels, options.CompactText);
         }
         return builders;
     }

@@ -49,6 +49,13 @@ internal sealed class FitsColumnEncoder
                         if (!c.IsMissing(i)) width = Math.Max(width, Encoding.UTF8.GetByteCount(c.Values[i]));
                     return new(c, 'A', width, null);
                 }
+            case Utf8Column u:
+                {
+                    int width = 1;
+                    for (int i = 0; i < u.Length; i++)
+                        if (!u.IsMissing(i)) width = Math.Max(width, u.Utf8(i).Length);
+                    return new(u, 'A', width, null);
+                }
             default:
                 {
                     var (code, width, tnull) = FitsNullValue.Choose(column);
@@ -90,6 +97,16 @@ internal sealed class FitsColumnEncoder
                     if (c.IsMissing(firstRow + r)) { field.Clear(); continue; }
                     int n = Encoding.UTF8.GetBytes(c.Values[firstRow + r], field);
                     field[n..].Fill((byte)' ');
+                }
+                break;
+            case Utf8Column u:
+                for (int r = 0; r < count; r++, off += rowBytes)
+                {
+                    var field = chunk.Slice(off, Width);
+                    if (u.IsMissing(firstRow + r)) { field.Clear(); continue; }
+                    var bytes = u.Utf8(firstRow + r);
+                    bytes.CopyTo(field);
+                    field[bytes.Length..].Fill((byte)' ');
                 }
                 break;
             default:
