@@ -75,8 +75,8 @@ internal static class MembershipBenchmark
         }
         // [Fe/H] likelihoods: Gaussians on a 0.02 dex grid for stars brighter than 23 mag
         const double gmin = -4, step = 0.02; const int gcount = 251;
-        var off = new long[n]; var start = new int[n]; var len = new int[n];
-        var vals = new List<float>(n * 40);
+        var off = new int[n]; var start = new int[n]; var len = new int[n];
+        var vals = new List<Half>(n * 40);
         for (int i = 0; i < n; i++)
         {
             off[i] = vals.Count;
@@ -87,7 +87,7 @@ internal static class MembershipBenchmark
             if (j1 < j0) continue;
             double norm = 0;
             for (int j = j0; j <= j1; j++) { double z = (gmin + j * step - obs) / s; norm += Math.Exp(-0.5 * z * z); }
-            for (int j = j0; j <= j1; j++) { double z = (gmin + j * step - obs) / s; vals.Add((float)(Math.Exp(-0.5 * z * z) / (norm * step))); }
+            for (int j = j0; j <= j1; j++) { double z = (gmin + j * step - obs) / s; vals.Add((Half)(Math.Exp(-0.5 * z * z) / (norm * step))); }
             start[i] = j0; len[i] = j1 - j0 + 1;
         }
         var l = new FehLikelihoods { GridMin = gmin, GridStep = step, GridCount = gcount, Offset = off, Start = start, Length = len, Values = vals.ToArray() };

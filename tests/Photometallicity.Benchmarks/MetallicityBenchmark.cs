@@ -37,7 +37,7 @@ internal static class MetallicityBenchmark
         Console.WriteLine($"metallicity: {n} stars, {members} members, {Environment.ProcessorCount} cores, threads {threads}");
         Console.WriteLine($"  tabulation {setup:F2} s ({model.EnsembleCoefficients.Length} members, colour step {assigner.ColourNodeStep:F4} mag)");
         Console.WriteLine($"  total {total:F2} s wall, {n / total:F0} stars/s; CPU {cpu:F2} s ({1e6 * cpu / n:F1} us per star, {n / cpu * 2:F0} stars/s on 2 idle cores)");
-        Console.WriteLine($"  mean stored likelihood window {meanWindow:F0} points, {r.Likelihoods.Values.Length * 4e-6:F0} MB of likelihoods; load average {LoadAverage()}");
+        Console.WriteLine($"  mean stored likelihood window {meanWindow:F0} points, {r.Likelihoods.Values.Length * 2e-6:F0} MB of likelihoods; load average {LoadAverage()}");
         Console.WriteLine("  " + string.Join(", ", r.Counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));
     }
 

@@ -36,7 +36,7 @@ public abstract class Column
     public abstract Column Rename(string newName);
 
     /// <summary>The whole column as doubles, NaN where missing.</summary>
-    public double[] ToDoubleArray()
+    public virtual double[] ToDoubleArray()
     {
         var a = new double[Length];
         for (int i = 0; i < a.Length; i++) a[i] = GetDouble(i);

@@ -59,6 +59,11 @@ public static class PositionValidation
             }
             return;
         }
+        if (c is Utf8Column utf8)
+        {
+            RequireUniqueUtf8(table, idColumn, utf8);
+            return;
+        }
         var seenText = new Dictionary<string, int>(c.Length, StringComparer.Ordinal);
         for (int i = 0; i < c.Length; i++)
         {
@@ -66,6 +71,35 @@ public static class PositionValidation
             if (id is null) throw new InputException(PositionMessages.MissingId, table.Source, i + 1, idColumn);
             if (!seenText.TryAdd(id, i))
                 throw new InputException(PositionMessages.DuplicateId(id, seenText[id] + 1, i + 1), table.Source, i + 1, idColumn);
+        }
+    }
+
+    /// <summary>
+    /// The same check and the same first error (rows taken in order) for a <see cref="Utf8Column"/>, without a string per
+    /// row: an open-addressing table of row numbers (linear probing, at most half full) keyed by a hash of the bytes.
+    /// </summary>
+    private static void RequireUniqueUtf8(Table table, string idColumn, Utf8Column c)
+    {
+        int n = c.Length;
+        int size = (int)Math.Min(Array.MaxLength, Math.Max(16, System.Numerics.BitOperations.RoundUpToPowerOf2((uint)Math.Max(1, 2 * n))));
+        var slots = new int[size];
+        Array.Fill(slots, -1);
+        int mask = size - 1;
+        for (int i = 0; i < n; i++)
+        {
+            if (c.IsMissing(i)) throw new InputException(PositionMessages.MissingId, table.Source, i + 1, idColumn);
+            var id = c.Utf8(i);
+            var h = new HashCode();
+            h.AddBytes(id);
+            int s = h.ToHashCode() & mask;
+            while (slots[s] >= 0)
+            {
+                int j = slots[s];
+                if (c.Utf8(j).SequenceEqual(id))
+                    throw new InputException(PositionMessages.DuplicateId(c.GetString(i)!, j + 1, i + 1), table.Source, i + 1, idColumn);
+                s = (s + 1) & mask;
+            }
+            slots[s] = i;
         }
     }
 

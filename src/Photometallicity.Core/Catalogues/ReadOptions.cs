@@ -21,4 +21,21 @@ public sealed record ReadOptions
     /// CSV only: columns that must be numeric; a non-numeric cell in one of them is an error naming the row.
     /// </summary>
     public IReadOnlySet<string> NumericColumns { get; init; } = new HashSet<string>();
+
+    /// <summary>
+    /// The columns to keep; null keeps every column. The others are skipped while the file is read (a CSV cell of a
+    /// skipped column is never parsed or stored; the row still must have every field), so that a wide catalogue costs only
+    /// the memory of the columns a run uses. A named column the file lacks is not an error here: <see cref="Table.Require"/>
+    /// reports it, listing every column of the file.
+    /// </summary>
+    public IReadOnlySet<string>? Columns { get; init; }
+
+    /// <summary>
+    /// CSV only: the <see cref="TextColumns"/> are read as <see cref="Utf8Column"/>s (UTF-8 bytes, ~13 bytes a row for a short
+    /// id instead of ~48 as strings) instead of columns of strings.
+    /// </summary>
+    public bool CompactText { get; init; }
+
+    /// <summary>True when column <paramref name="name"/> is to be kept.</summary>
+    public bool Keeps(string name) => Columns is null || Columns.Contains(name);
 }

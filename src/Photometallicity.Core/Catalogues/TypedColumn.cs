@@ -80,6 +80,23 @@ public sealed class Column<T> : Column
         };
     }
 
+    /// <summary>The same values as <see cref="GetDouble"/> row by row, without boxing each element.</summary>
+    public override double[] ToDoubleArray()
+    {
+        var a = new double[Values.Length];
+        switch (Values)
+        {
+            case double[] d: Array.Copy(d, a, d.Length); break;
+            case float[] f: for (int i = 0; i < f.Length; i++) a[i] = f[i]; break;
+            case long[] l: for (int i = 0; i < l.Length; i++) a[i] = l[i]; break;
+            case int[] n: for (int i = 0; i < n.Length; i++) a[i] = n[i]; break;
+            default: return base.ToDoubleArray();
+        }
+        if (Missing is { } m)
+            for (int i = 0; i < a.Length; i++) if (m[i]) a[i] = double.NaN;
+        return a;
+    }
+
     public override Column Select(ReadOnlySpan<int> rows)
     {
         var v = new T[rows.Length];

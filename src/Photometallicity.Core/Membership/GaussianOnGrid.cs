@@ -4,8 +4,8 @@ namespace Photometallicity.Membership;
 
 /// <summary>
 /// A Gaussian metallicity distribution N(F; mu, sigma) convolved with each star's own stored [Fe/H] likelihood:
-/// Z_i = sum_j N(F_j; mu, sigma) L_i(F_j) dF over the star's stored window (midpoint rule on the likelihood grid,
-/// the exact use of the stored window). The Gaussian is tabulated once per parameter value on the whole grid, so a
+/// Z_i = sum_m N(F_m; mu, sigma) L_i(F_m) h_i over the star's stored values (midpoint rule at the star's own spacing
+/// h_i = stride x grid step, the exact use of the stored samples; see <see cref="FehLikelihoods"/>). The Gaussian is tabulated once per parameter value on the whole grid, so a
 /// star costs one dot product over its window. The first and second moments of F under the star's posterior
 /// q_ij proportional to N(F_j) L_ij give the EM update of (mu, sigma) with F as the latent true [Fe/H]
 /// (Dempster, Laird &amp; Rubin 1977, JRSS B 39, 1): mu' = sum w E[F] / sum w, sigma'^2 = sum w E[(F - mu')^2] / sum w.
@@ -39,25 +39,25 @@ internal sealed class GaussianOnGrid
     public double Convolve(int star)
     {
         var w = _l.Window(star);
-        int s = _l.Start[star];
+        int s = _l.Start[star], k = _l.StrideOf(star);
         double z = 0;
-        for (int j = 0; j < w.Length; j++) z += w[j] * _g[s + j];
-        return z;
+        for (int m = 0, j = s; m < w.Length; m++, j += k) z += (double)w[m] * _g[j];
+        return z * k;
     }
 
     /// <summary>Z_i together with the posterior moments E[F] and E[F^2].</summary>
     public double Convolve(int star, out double m1, out double m2)
     {
         var w = _l.Window(star);
-        int s = _l.Start[star];
+        int s = _l.Start[star], k = _l.StrideOf(star);
         double z = 0, a = 0, b = 0;
-        for (int j = 0; j < w.Length; j++)
+        for (int m = 0, j = s; m < w.Length; m++, j += k)
         {
-            double l = w[j];
-            z += l * _g[s + j]; a += l * _gF[s + j]; b += l * _gF2[s + j];
+            double l = (double)w[m];
+            z += l * _g[j]; a += l * _gF[j]; b += l * _gF2[j];
         }
         if (z > 0) { m1 = a / z; m2 = b / z; }
         else { m1 = m2 = 0; }
-        return z;
+        return z * k;
     }
 }

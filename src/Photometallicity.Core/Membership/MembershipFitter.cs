@@ -34,7 +34,7 @@ public static class MembershipFitter
         MixtureFit? secondary = null;
         bool anyFeh = d.Feh is not null && d.FehRows.Length > 0;
         if (anyFeh && options.FitBothMetallicityModes)
-            secondary = FitMode(d, setup, options, !options.UseMetallicity, primary.Parameters.Clone(), null);
+            secondary = FitMode(d, setup, options, !options.UseMetallicity, primary.Parameters.Clone(), null, keepTerms: false);
         var withTerm = options.UseMetallicity ? primary : secondary;
         var withoutTerm = options.UseMetallicity ? secondary : primary;
         MdfFit? mdfWith = null, mdfWithout = null;
@@ -77,9 +77,11 @@ public static class MembershipFitter
         return MdfEstimator.Fit(d.Feh!, p, d.FehRows, mu0, 0.3, threads);
     }
 
-    private static MixtureFit FitMode(MixtureData d, MixtureSetup setup, MembershipOptions o, bool useFeh, MixtureParameters p, List<string>? warnings)
+    private static MixtureFit FitMode(MixtureData d, MixtureSetup setup, MembershipOptions o, bool useFeh, MixtureParameters p, List<string>? warnings,
+        bool keepTerms = true)
     {
-        var em = new MixtureEm(d, setup.Bounds, useFeh, o.MaxThreads);
+        // Only the primary fit is reported with structural uncertainties, which need the per-star terms.
+        var em = new MixtureEm(d, setup.Bounds, useFeh, o.MaxThreads, keepTerms);
         var fgCmd = setup.ForegroundCmdLog(null);
         var (it1, c1) = em.Iterate(p, fgCmd, o.MaxIterations, o.Tolerance);
         // second stage: foreground CMD from the outer region with the target's outskirts weighted out

@@ -56,10 +56,11 @@ internal sealed class MixtureData
         var hasFeh = new bool[n];
         for (int i = 0; i < n; i++) hasFeh[i] = hasPos[i] && inp.HasFeh(i);
         var hasPm = new bool[n];
-        var pmRa = inp.PmRa ?? new double[n];
-        var pmDec = inp.PmDec ?? new double[n];
-        var vRa = new double[n];
-        var vDec = new double[n];
+        // Without proper motions (or parallaxes) their columns stay empty: no row has them, so none is ever read.
+        var pmRa = inp.PmRa ?? [];
+        var pmDec = inp.PmDec ?? [];
+        var vRa = inp.PmRa is null ? [] : new double[n];
+        var vDec = inp.PmRa is null ? [] : new double[n];
         if (inp.PmRa is not null)
             for (int i = 0; i < n; i++)
             {
@@ -68,8 +69,8 @@ internal sealed class MixtureData
                 vRa[i] = er * er; vDec[i] = ed * ed;
             }
         var hasPlx = new bool[n];
-        var plx = inp.Parallax ?? new double[n];
-        var vPlx = new double[n];
+        var plx = inp.Parallax ?? [];
+        var vPlx = inp.Parallax is null ? [] : new double[n];
         if (inp.Parallax is not null)
             for (int i = 0; i < n; i++)
             {
@@ -97,9 +98,11 @@ internal sealed class MixtureData
 
     private static int[] Rows(int n, Func<int, bool> keep)
     {
-        var list = new List<int>();
-        for (int i = 0; i < n; i++) if (keep(i)) list.Add(i);
-        return list.ToArray();
+        int count = 0;
+        for (int i = 0; i < n; i++) if (keep(i)) count++;
+        var rows = new int[count];
+        for (int i = 0, k = 0; i < n; i++) if (keep(i)) rows[k++] = i;
+        return rows;
     }
 
     /// <summary>Mean [Fe/H] of a star's stored likelihood (dex).</summary>
@@ -107,7 +110,11 @@ internal sealed class MixtureData
     {
         var w = Feh!.Window(i);
         double s = 0, sf = 0;
-        for (int j = 0; j < w.Length; j++) { s += w[j]; sf += w[j] * Feh.GridValue(Feh.Start[i] + j); }
+        for (int m = 0; m < w.Length; m++)
+        {
+            double v = (double)w[m];
+            s += v; sf += v * Feh.GridValue(Feh.GridIndex(i, m));
+        }
         return s > 0 ? sf / s : double.NaN;
     }
 }

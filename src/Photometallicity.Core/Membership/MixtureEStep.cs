@@ -22,7 +22,7 @@ internal static class MixtureEStep
         return mx + Math.Log(Math.Exp(a - mx) + Math.Exp(b - mx));
     }
 
-    /// <summary>Runs the E-step; writes r, and the non-spatial log terms of each component (for the Hessian).</summary>
+    /// <summary>Runs the E-step; writes r, and the non-spatial log terms of each component (for the Hessian) unless their arrays are empty.</summary>
     public static double[] Run(MixtureData d, MixtureParameters p, double[] fgCmdLog, bool useFeh, int threads,
         double[] r, double[] otherT, double[] otherF)
     {
@@ -33,6 +33,7 @@ internal static class MixtureEStep
         var gt = feh ? new GaussianOnGrid(d.Feh!, p.MdfMean, p.MdfSigma) : null;
         var gf = feh ? new GaussianOnGrid(d.Feh!, p.FgMdfMean, p.FgMdfSigma) : null;
         var pos = d.Positioned;
+        bool keepTerms = otherT.Length > 0;
         return ChunkedReduction.Sum(pos.Length, Width, threads, (a, b, acc) =>
         {
             for (int k = a; k < b; k++)
@@ -62,7 +63,7 @@ internal static class MixtureEStep
                     ot += -0.5 * (t * t / d.VarPlx[i] + Math.Log(2 * Math.PI * d.VarPlx[i]));
                     of += p.FgPlx.LogDensity(d.Plx[i], d.VarPlx[i]);
                 }
-                otherT[i] = ot; otherF[i] = of;
+                if (keepTerms) { otherT[i] = ot; otherF[i] = of; }
                 double la = lnF + Math.Log(ev.Density(d.X[i], d.Y[i])) - lnPhi + ot;
                 double lb = lnF1 - lnArea + of;
                 double ll = LogSumExp(la, lb);

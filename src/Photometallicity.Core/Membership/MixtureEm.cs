@@ -17,18 +17,24 @@ internal sealed class MixtureEm
     private readonly int _threads;
     private readonly bool _useFeh;
 
-    public MixtureEm(MixtureData d, SpatialMStep.Bounds bounds, bool useFeh, int threads)
+    /// <summary>
+    /// An EM over the rows of <paramref name="d"/>. With <paramref name="keepTerms"/> each star's non-spatial log terms
+    /// (<see cref="OtherT"/>, <see cref="OtherF"/>, 16 bytes a row) are kept for the structural uncertainties; a fit that is
+    /// not reported with them leaves them empty.
+    /// </summary>
+    public MixtureEm(MixtureData d, SpatialMStep.Bounds bounds, bool useFeh, int threads, bool keepTerms = true)
     {
         _d = d; _bounds = bounds; _useFeh = useFeh && d.Feh is not null && d.FehRows.Length > 0; _threads = threads;
         R = new double[d.RowCount];
-        OtherT = new double[d.RowCount];
-        OtherF = new double[d.RowCount];
+        OtherT = keepTerms ? new double[d.RowCount] : [];
+        OtherF = keepTerms ? new double[d.RowCount] : [];
     }
 
     /// <summary>Change of ln L per iteration (besides the per-star part) below which EM stops: far below the 0.5 of a 1-sigma change.</summary>
     public const double AbsoluteTolerance = 1e-4;
 
     public double[] R { get; }
+    /// <summary>The target's non-spatial log terms per row (empty unless kept).</summary>
     public double[] OtherT { get; }
     public double[] OtherF { get; }
     public double LogLikelihood { get; private set; }

@@ -66,7 +66,8 @@ public sealed class MetallicityAssigner
         var status = new MetallicityStatus[n];
         var start = new int[n];
         var length = new int[n];
-        var offset = new long[n];
+        var stride = new byte[n];
+        var offset = new int[n];
 
         // Stars in order of colour node, then index: neighbours in a chunk share the same rows of the tabulated model.
         var keys = new long[n];
@@ -90,19 +91,20 @@ public sealed class MetallicityAssigner
             {
                 var buf = buffers[ci] = new LikelihoodBuffer();
                 int end = Math.Min(n, (ci + 1) * chunk);
-                void Write(int i, StarSummary s, int st, int len)
+                void Write(int i, StarSummary s, StoredWindow w)
                 {
                     (status[i], feh[i], lo[i], hi[i], lim[i], side[i]) = (s.Status, s.Feh, s.FehLo, s.FehHi, s.Limit, s.Side);
-                    start[i] = st;
-                    length[i] = len;
-                    offset[i] = buf.Count - len;
+                    start[i] = w.Start;
+                    length[i] = w.Length;
+                    stride[i] = w.Length > 0 ? w.Stride : (byte)1;
+                    offset[i] = buf.Count - w.Length;
                 }
                 for (int p = ci * chunk; p < end; p++)
                 {
                     int i = order[p];
-                    if (!photometry.IsUsable(i)) Write(i, StarSummary.Without(MetallicityStatus.BadPhotometry), 0, 0);
+                    if (!photometry.IsUsable(i)) Write(i, StarSummary.Without(MetallicityStatus.BadPhotometry), default);
                     else if (!solver.TryBegin(i, rowKeys is null ? i : rowKeys[i], photometry.Index0[i], photometry.Colour0[i], photometry.VarIndex[i], photometry.VarColour[i],
-                                 photometry.CovIndexColour[i], out var early)) Write(i, early, 0, 0);
+                                 photometry.CovIndexColour[i], out var early)) Write(i, early, default);
                     if (solver.PendingCount == LikelihoodKernel.BatchCapacity) solver.FinishBatch(buf, Write);
                 }
                 if (solver.PendingCount > 0) solver.FinishBatch(buf, Write);
@@ -116,12 +118,16 @@ public sealed class MetallicityAssigner
         for (int c = 0; c < chunks; c++) bases[c + 1] = bases[c] + buffers[c].Count;
         if (bases[chunks] > Array.MaxLength)
             throw new MethodException($"the stored likelihoods need {bases[chunks]} values, more than one array holds; use a coarser grid_step");
-        var values = new float[bases[chunks]];
-        for (int c = 0; c < chunks; c++) buffers[c].Data.CopyTo(values.AsSpan((int)bases[c]));
+        var values = new Half[bases[chunks]];
+        for (int c = 0; c < chunks; c++)
+        {
+            buffers[c].Data.CopyTo(values.AsSpan((int)bases[c]));
+            buffers[c] = null!; // the chunk's copy is garbage from here: the whole field is never held twice
+        }
         for (int p = 0; p < n; p++)
         {
             int i = order[p];
-            offset[i] = length[i] > 0 ? offset[i] + bases[p / chunk] : 0;
+            offset[i] = length[i] > 0 ? offset[i] + (int)bases[p / chunk] : 0;
         }
 
         var counts = Enum.GetValues<MetallicityStatus>().ToDictionary(s => s, _ => 0);
@@ -136,7 +142,7 @@ public sealed class MetallicityAssigner
             Likelihoods = new FehLikelihoods
             {
                 GridMin = _options.GridMin, GridStep = _options.GridStep, GridCount = _gridCount,
-                Offset = offset, Start = start, Length = length, Values = values,
+                Offset = offset, Start = start, Length = length, Stride = stride, Values = values,
             },
         };
     }

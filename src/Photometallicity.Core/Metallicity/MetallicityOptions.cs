@@ -53,6 +53,12 @@ public sealed record MetallicityOptions
     public double PointsPerSigma { get; init; } = 8;
 
     /// <summary>
+    /// Stores every grid point of each likelihood window instead of the per-star stride (see <see cref="FehLikelihoods"/>);
+    /// for tests that measure what the compact storage changes.
+    /// </summary>
+    internal bool StoreEveryGridPoint { get; init; }
+
+    /// <summary>
     /// Tolerance of the ensemble subset per star, as a fraction eps of the posterior width; 0 = always every member.
     /// The mixture over M' of the M members (a rotating, star-dependent subset of the exchangeable bootstrap members) differs from
     /// the full mixture by a shift of about tau / sqrt(M') (tau = the members' spread of f), against a posterior width of about

@@ -87,13 +87,13 @@ internal sealed class StarSolver
     }
 
     /// <summary>Runs the kernel on the queued stars and hands each summary to <paramref name="done"/> in queue order.</summary>
-    public void FinishBatch(LikelihoodBuffer? store, Action<int, StarSummary, int, int> done)
+    public void FinishBatch(LikelihoodBuffer? store, Action<int, StarSummary, StoredWindow> done)
     {
         _kernel.AccumulateBatch();
         for (int i = 0; i < _pendingCount; i++)
         {
-            var s = Finish(in _pending[i], store, out int start, out int length);
-            done(_pending[i].Star, s, start, length);
+            var s = Finish(in _pending[i], store, out var stored);
+            done(_pending[i].Star, s, stored);
         }
         _kernel.Clear();
         _pendingCount = 0;
@@ -104,14 +104,13 @@ internal sealed class StarSolver
     {
         if (!TryBegin(0, 0, x0, c0, vx, vc, cov, out var early)) return early;
         StarSummary r = default;
-        FinishBatch(null, (_, s, _, _) => r = s);
+        FinishBatch(null, (_, s, _) => r = s);
         return r;
     }
 
-    private StarSummary Finish(in Pending p, LikelihoodBuffer? store, out int start, out int length)
+    private StarSummary Finish(in Pending p, LikelihoodBuffer? store, out StoredWindow stored)
     {
-        start = 0;
-        length = 0;
+        stored = default;
         int a = p.A, b = p.B;
         double total = 0;
         ReadOnlySpan<float> like = default;
@@ -131,14 +130,14 @@ internal sealed class StarSolver
             var status = above ? MetallicityStatus.IndexAboveRange : MetallicityStatus.IndexBelowRange;
             // A limit star still keeps its likelihood inside the domain (rising to the edge it points beyond), so
             // that the metallicity-distribution fit is not biased by dropping the stars nearest an edge.
-            if (store is not null && total > 0) (start, length) = Store(a, like, store);
+            if (store is not null && total > 0) stored = Store(a, like, store);
             return new StarSummary(status, double.NaN, highEdge ? lim : double.NaN, highEdge ? double.NaN : lim, lim, side);
         }
         double med = Percentile(a, b - a, 0.5);
         double p16 = Percentile(a, b - a, 0.16);
         double p84 = Percentile(a, b - a, 0.84);
         var st = Math.Max(zAbove, zBelow) > _truncZ ? MetallicityStatus.PosteriorTruncated : MetallicityStatus.Ok;
-        if (store is not null) (start, length) = Store(a, like, store);
+        if (store is not null) stored = Store(a, like, store);
         return new StarSummary(st, med, p16, p84, double.NaN, FehLimitSide.None);
     }
 
@@ -166,8 +165,21 @@ internal sealed class StarSolver
         return FehAt(a + n - 1);
     }
 
-    /// <summary>Stores the likelihood (no prior) where it is at least 1e-6 of its peak, normalised to sum x GridStep = 1.</summary>
-    private (int Start, int Length) Store(int a, ReadOnlySpan<float> like, LikelihoodBuffer store)
+    /// <summary>Stored samples per standard deviation of a star's likelihood (see <see cref="FehLikelihoods"/>).</summary>
+    internal const double StoredPointsPerSigma = 3;
+
+    /// <summary>
+    /// Stores the likelihood (no prior) over the span where it is at least 1e-6 of its peak, sampled every k grid points
+    /// (k = round(sd / (3 GridStep)), at least 1, sd the standard deviation of the likelihood over that span) as
+    /// half-precision values normalised to sum x k x GridStep = 1, so that a consumer's midpoint sum at spacing k GridStep
+    /// stands for the sum over every grid point of the span.
+    /// The samples start at the span's low end, or end at its high end when that end is hard (cut by the calibration's
+    /// domain at a sizeable value; a soft end is where the likelihood fell below the cut) and the low end soft or lower; with
+    /// two hard ends a stride down to 2/3 of the target that divides the span puts samples on both. The samples carry the
+    /// end-corrected weights of <see cref="EndCorrectedWeights"/> (folded into the stored values), so that a hard edge stays
+    /// where the full grid has it instead of moving (k - 1)/2 points outwards, as equal weights would make it.
+    /// </summary>
+    private StoredWindow Store(int a, ReadOnlySpan<float> like, LikelihoodBuffer store)
     {
         float peak = 0;
         foreach (float v in like) peak = Math.Max(peak, v);
@@ -175,23 +187,75 @@ internal sealed class StarSolver
         int lo = 0, hi = like.Length - 1;
         while (like[lo] < cut) lo++;
         while (like[hi] < cut) hi--;
+        // The kernel evaluates out to several sigma beyond the cut, so an end that reaches the evaluated range is the domain's.
+        bool hardLo = lo == 0, hardHi = hi == like.Length - 1;
+        double s0 = 0, s1 = 0, s2 = 0;
+        for (int j = lo; j <= hi; j++)
+        {
+            double v = like[j], x = j - lo;
+            s0 += v; s1 += v * x; s2 += v * x * x;
+        }
+        double mean = s1 / s0, sd = Math.Sqrt(Math.Max(s2 / s0 - mean * mean, 0));
+        int span = hi - lo + 1;
+        int k = (int)Math.Clamp(Math.Round(sd / StoredPointsPerSigma, MidpointRounding.AwayFromZero), 1, byte.MaxValue);
+        if (_o.StoreEveryGridPoint) k = 1;
+        k = Math.Min(k, Math.Max(1, span - 1));
+        if (hardLo && hardHi)
+        {
+            // Both ends sampled when a stride down to 2/3 of the target divides the span; else the remainder goes to the lower end.
+            for (int kk = k; 3 * kk >= 2 * k; kk--)
+                if ((span - 1) % kk == 0) { k = kk; break; }
+        }
+        int count = (span - 1) / k + 1;
+        bool anchorHigh = hardHi && (!hardLo || like[hi] > like[lo]);
+        int first = anchorHigh ? hi - (count - 1) * k : lo;
+        int last = first + (count - 1) * k;
+        Span<double> w = count <= 512 ? stackalloc double[count] : new double[count];
+        EndCorrectedWeights(w, k, span, first - lo, hi - last);
         double sum = 0;
-        for (int j = lo; j <= hi; j++) sum += like[j];
-        float scale = (float)(1.0 / (sum * _gridStep));
-        var dst = store.Reserve(hi - lo + 1);
-        for (int j = lo; j <= hi; j++) dst[j - lo] = like[j] * scale;
-        return (_g.FehFirst + a + lo, hi - lo + 1);
+        for (int m = 0; m < count; m++) sum += like[first + m * k] * w[m];
+        double scale = 1.0 / (sum * _gridStep);
+        var dst = store.Reserve(count);
+        for (int m = 0; m < count; m++) dst[m] = (Half)(like[first + m * k] * w[m] / k * scale);
+        return new StoredWindow(_g.FehFirst + a + first, count, (byte)k);
+    }
+
+    /// <summary>
+    /// Weights (in grid points) of samples every k points that make sum_m w_m f(s_m) stand for the sum of f over all L points
+    /// of a span whose first and last samples lie rLo and rHi points inside its ends. Euler-Maclaurin summation (Abramowitz &amp;
+    /// Stegun 1964, eq. 23.1.30; recalled from memory) for the points and for the samples gives
+    /// sum_j f(j) = k sum_m f(m k) - (k - 1)/2 (f_first + f_last) - (k^2 - 1)/12 (f'_last - f'_first) + O(k^4 f'''):
+    /// interior weight k, end weight (k + 1)/2, and the derivative term with f' from the end pair of samples ((k^2 - 1)/(12 k)
+    /// moved from each end sample to its neighbour). The rLo / rHi points beyond an end sample are taken at the line through
+    /// the end pair. The weights add up to L (exact for a constant or a straight line).
+    /// </summary>
+    internal static void EndCorrectedWeights(Span<double> w, int k, int span, int rLo, int rHi)
+    {
+        int n = w.Length;
+        if (n == 1) { w[0] = span; return; }
+        w.Fill(k);
+        w[0] = w[n - 1] = (k + 1) / 2.0;
+        if (n >= 3 && k > 1)
+        {
+            double c = (k * (double)k - 1) / (12.0 * k);
+            w[0] -= c; w[1] += c; w[n - 1] -= c; w[n - 2] += c;
+        }
+        if (rLo > 0) { double e = rLo * (rLo + 1) / (2.0 * k); w[0] += rLo + e; w[1] -= e; }
+        if (rHi > 0) { double e = rHi * (rHi + 1) / (2.0 * k); w[n - 1] += rHi + e; w[n - 2] -= e; }
     }
 }
 
-/// <summary>A growable float buffer for the likelihood windows of one chunk of stars.</summary>
+/// <summary>Where a star's stored likelihood went: first grid index, number of stored values, grid points between them.</summary>
+internal readonly record struct StoredWindow(int Start, int Length, byte Stride);
+
+/// <summary>A growable half-precision buffer for the likelihood windows of one chunk of stars.</summary>
 internal sealed class LikelihoodBuffer
 {
-    private float[] _data = new float[4096];
+    private Half[] _data = new Half[4096];
     public int Count { get; private set; }
-    public ReadOnlySpan<float> Data => _data.AsSpan(0, Count);
+    public ReadOnlySpan<Half> Data => _data.AsSpan(0, Count);
 
-    public Span<float> Reserve(int n)
+    public Span<Half> Reserve(int n)
     {
         if (Count + n > _data.Length) Array.Resize(ref _data, Math.Max(_data.Length * 2, Count + n));
         var s = _data.AsSpan(Count, n);

@@ -5,7 +5,8 @@ namespace Photometallicity.Pipeline;
 
 /// <summary>
 /// The input tables of a run, read once with the config's column names resolved and checked
-/// (a missing column is reported with the columns that were found), plus each file's checksum.
+/// (a missing column is reported with the columns that were found), plus each file's checksum. Only the columns the
+/// config names are read (<see cref="ReadOptions.Columns"/>).
 /// </summary>
 public sealed class InputCatalogues
 {
@@ -35,7 +36,7 @@ public sealed class InputCatalogues
             if (s.LogGColumn is not null) numeric.Add(s.LogGColumn);
             var text = new HashSet<string>();
             if (s.IdColumn is not null) text.Add(s.IdColumn);
-            var t = CatalogueIO.Read(s.Path, new ReadOptions { NumericColumns = numeric, TextColumns = text });
+            var t = CatalogueIO.Read(s.Path, new ReadOptions { NumericColumns = numeric, TextColumns = text, Columns = new HashSet<string>([.. numeric, .. text]) });
             string key = $"standards[{i}]";
             t.Require(s.RaColumn, key + ".ra");
             t.Require(s.DecColumn, key + ".dec");
@@ -90,7 +91,15 @@ public sealed class InputCatalogues
         numeric.Add(c.DecColumn);
         var text = new HashSet<string>();
         if (c.IdColumn is not null) text.Add(c.IdColumn);
-        var t = CatalogueIO.Read(c.Path, new ReadOptions { MissingSentinels = c.MissingValues, Extension = c.Extension, NumericColumns = numeric, TextColumns = text });
+        // Only the columns the config names are kept: a wide catalogue's other columns are skipped while it is read.
+        var keep = new HashSet<string>(numeric);
+        keep.UnionWith(text);
+        if (c.FlagColumn is not null) keep.Add(c.FlagColumn);
+        var t = CatalogueIO.Read(c.Path, new ReadOptions
+        {
+            MissingSentinels = c.MissingValues, Extension = c.Extension, NumericColumns = numeric, TextColumns = text, Columns = keep,
+            CompactText = true, // ids as UTF-8 bytes (Utf8Column): ~13 bytes a row instead of ~48 as strings
+        });
         t.Require(c.RaColumn);
         t.Require(c.DecColumn);
         if (c.IdColumn is not null) t.Require(c.IdColumn);

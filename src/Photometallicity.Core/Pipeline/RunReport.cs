@@ -22,7 +22,11 @@ public static class RunReport
             return p;
         }
         var summary = JsonNode.Parse(File.ReadAllText(Need("summary.json")))!.AsObject();
-        var stars = CatalogueIO.Read(Need("stars.csv"), new ReadOptions { TextColumns = new HashSet<string> { "id", "narrow_id", "status" } });
+        // Only the columns the figures draw: the ids and status texts would cost a string per row.
+        var stars = CatalogueIO.Read(Need("stars.csv"), new ReadOptions
+        {
+            Columns = new HashSet<string> { "ra", "dec", "blue0", "red0", "colour0", "index0", "feh", "feh_lo", "feh_hi", "p_member" },
+        });
         var model = CalibrationJson.Read(Need("calibration.json"));
         string residualsPath = Path.Combine(directory, "calibration_residuals.csv");
         string plots = Path.Combine(directory, "plots");
@@ -49,7 +53,7 @@ public static class RunReport
             rd = Pick(residuals.RequireDoubles("residual_dex"), fitted);
             acc = fitted.Select(i => status.GetString(i) == "accepted").ToArray();
         }
-        double[] colour = stars.RequireDoubles("colour0"), index = stars.RequireDoubles("index0"), p = stars.RequireDoubles("p_member");
+        double[] colour = stars.ReadOnlyDoubles("colour0"), index = stars.ReadOnlyDoubles("index0"), p = stars.ReadOnlyDoubles("p_member");
 
         Add(ColourIndexPlot.Write(new ColourIndexPlotData(rc, ri, acc, IsoCurves(model), colour, index), Path.Combine(plots, "colour_index")),
             "Colour-index diagram: the calibration's iso-[Fe/H] curves over its validity domain, the standards (accepted and rejected) and the field stars.", "Calibration");
@@ -59,20 +63,20 @@ public static class RunReport
 
         var mem = summary["members"]!.AsObject();
         string magBand = (string?)mem["magnitude_band"] ?? "blue";
-        double[] mag = stars.RequireDoubles(magBand == "red" ? "red0" : "blue0");
+        double[] mag = stars.ReadOnlyDoubles(magBand == "red" ? "red0" : "blue0");
         double[]? ridgeMag = mem["ridge_mag"]?.AsArray().Select(v => v is null ? double.NaN : (double)v).ToArray();
         double[]? ridgeCol = mem["ridge_colour"]?.AsArray().Select(v => v is null ? double.NaN : (double)v).ToArray();
         Add(CmdPlot.Write(new CmdPlotData(colour, mag, p, ridgeCol, ridgeMag), Path.Combine(plots, "cmd")),
             "Colour-magnitude diagram coloured by membership probability, with the fitted red-giant locus.", "Colour-magnitude diagram");
 
         double ra0 = Num(mem["centre_ra_deg"]), dec0 = Num(mem["centre_dec_deg"]);
-        var (xi, eta) = Gnomonic(stars.RequireDoubles("ra"), stars.RequireDoubles("dec"), ra0, dec0);
+        var (xi, eta) = Gnomonic(stars.ReadOnlyDoubles("ra"), stars.ReadOnlyDoubles("dec"), ra0, dec0);
         var ellipse = double.IsFinite(ra0) ? new HalfLightEllipse(0, 0, Num(mem["half_light_arcmin"]), Num(mem["ellipticity"]), Num(mem["position_angle_deg"])) : null;
         Add(SkyMapPlot.Write(new SkyMapPlotData(xi, eta, p, ellipse), Path.Combine(plots, "sky")),
             "Sky map in the tangent plane about the fitted centre (east to the left), coloured by membership probability, with the fitted half-light ellipse.", "Sky map");
 
         var mdf = summary["mdf"] as JsonObject;
-        double[] feh = stars.RequireDoubles("feh"), lo = stars.RequireDoubles("feh_lo"), hi = stars.RequireDoubles("feh_hi");
+        double[] feh = stars.ReadOnlyDoubles("feh"), lo = stars.ReadOnlyDoubles("feh_lo"), hi = stars.ReadOnlyDoubles("feh_hi");
         var withFeh = Enumerable.Range(0, stars.RowCount).Where(i => double.IsFinite(feh[i]) && double.IsFinite(p[i])).ToArray();
         if (mdf is not null && withFeh.Length > 0)
             Add(MdfPlot.Write(new MdfPlotData(Pick(feh, withFeh), Pick(p, withFeh), withFeh.Select(i => 0.5 * (hi[i] - lo[i])).ToArray(),

@@ -6,10 +6,16 @@ namespace Photometallicity.Pipeline;
 /// </summary>
 public sealed class StarRows
 {
-    public required string[] Id { get; init; }
+    /// <summary>
+    /// The broadband id of every row, as a text column (usually the input's own <see cref="Catalogues.Utf8Column"/>, shared
+    /// rather than copied into a string per row; the row number when the config names no id column).
+    /// </summary>
+    public required Catalogues.Column Id { get; init; }
     public required double[] Ra { get; init; }
     public required double[] Dec { get; init; }
-    public required string?[] NarrowId { get; init; }
+
+    /// <summary>The narrow-band partner's id per row (missing without a partner), a text column.</summary>
+    public required Catalogues.Column NarrowId { get; init; }
     public required double[] MatchSepArcsec { get; init; }
     public required int[] MatchFlag { get; init; }
     public required double[] Blue0 { get; init; }
@@ -31,5 +37,5 @@ public sealed class StarRows
     public double[]? FehDwarfLo { get; init; }
     public double[]? FehDwarfHi { get; init; }
 
-    public int Count => Id.Length;
+    public int Count => Ra.Length;
 }

@@ -15,17 +15,13 @@ public static class StarRowsBuilder
         var ip = phot.Index;
         var idCol = config.Broadband.IdColumn is { } ic ? b.Require(ic) : null;
         var nidCol = config.Narrowband.IdColumn is { } nc ? inputs.Narrowband.Require(nc) : null;
-        var ids = new string[n];
-        var nids = new string?[n];
         var flag = new int[n];
         var cerr = new double[n];
         var xerr = new double[n];
         var status = new string[n];
         for (int i = 0; i < n; i++)
         {
-            ids[i] = idCol?.GetString(i) ?? (i + 1).ToString(System.Globalization.CultureInfo.InvariantCulture);
             int k = match.RightIndex[i];
-            nids[i] = k < 0 ? null : nidCol?.GetString(k) ?? (k + 1).ToString(System.Globalization.CultureInfo.InvariantCulture);
             flag[i] = k < 0 ? 0 : match.Blend[i] ? 2 : 1;
             cerr[i] = Math.Sqrt(ip.VarColour[i]);
             xerr[i] = Math.Sqrt(ip.VarIndex[i]);
@@ -33,10 +29,10 @@ public static class StarRowsBuilder
         }
         return new StarRows
         {
-            Id = ids,
-            Ra = b.RequireDoubles(config.Broadband.RaColumn),
-            Dec = b.RequireDoubles(config.Broadband.DecColumn),
-            NarrowId = nids,
+            Id = TextIds(idCol, n, null),
+            Ra = b.ReadOnlyDoubles(config.Broadband.RaColumn), // the input's own arrays: the rows are only read from here on
+            Dec = b.ReadOnlyDoubles(config.Broadband.DecColumn),
+            NarrowId = TextIds(nidCol, n, match.RightIndex),
             MatchSepArcsec = match.SeparationArcsec,
             MatchFlag = flag,
             Blue0 = ip.Blue0,
@@ -56,5 +52,25 @@ public static class StarRowsBuilder
             FehDwarfLo = dwarf?.FehLo,
             FehDwarfHi = dwarf?.FehHi,
         };
+    }
+
+    /// <summary>
+    /// Ids as text, per output row: the id column's value at row i (or at rows[i], missing where that is negative), or the
+    /// 1-based row number when there is no id column. An input text column is shared as it is when rows is null.
+    /// </summary>
+    private static Catalogues.Column TextIds(Catalogues.Column? ids, int n, int[]? rows)
+    {
+        if (rows is null && ids is { Type: Catalogues.ColumnType.String }) return ids;
+        var at = rows ?? Enumerable.Range(0, n).ToArray();
+        if (ids is not null) return Catalogues.Utf8Column.Gather("id", ids, at);
+        var b = new Catalogues.Utf8Column.Builder("id", n);
+        Span<byte> buf = stackalloc byte[12];
+        foreach (int k in at)
+        {
+            if (k < 0) { b.AddMissing(); continue; }
+            (k + 1).TryFormat(buf, out int len, default, System.Globalization.CultureInfo.InvariantCulture);
+            b.Add(buf[..len]);
+        }
+        return b.ToColumn();
     }
 }

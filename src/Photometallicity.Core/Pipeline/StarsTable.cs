@@ -8,10 +8,10 @@ public static class StarsTable
     public static Table Build(StarRows r)
     {
         var t = new Table(r.Count, "stars");
-        t.Add(new Column<string>("id", r.Id, description: "broadband source id"));
+        t.Add(Text(r.Id, "id", "broadband source id"));
         t.Add(new Column<double>("ra", r.Ra, unit: "deg", description: "right ascension (ICRS), broadband"));
         t.Add(new Column<double>("dec", r.Dec, unit: "deg", description: "declination (ICRS), broadband"));
-        t.Add(new Column<string>("narrow_id", r.NarrowId!, description: "id of the narrow-band partner"));
+        t.Add(Text(r.NarrowId, "narrow_id", "id of the narrow-band partner"));
         t.Add(new Column<double>("match_sep_arcsec", r.MatchSepArcsec, unit: "arcsec", description: "separation to the narrow-band partner after the offset correction"));
         t.Add(new Column<int>("match_flag", r.MatchFlag, description: "0 no partner, 1 matched, 2 matched with a second candidate inside the radius (possible blend)"));
         t.Add(new Column<double>("blue0", r.Blue0, unit: "mag", description: "dereddened blue magnitude"));
@@ -33,6 +33,15 @@ public static class StarsTable
         }
         t.Add(new Column<double>("p_member", r.PMember, description: "probability of belonging to the target"));
         t.Add(new Column<string>("status", r.Status, description: "status code (see README)"));
+        return t;
+    }
+
+    /// <summary>A text column of the star rows under its output name, without copying its values.</summary>
+    private static Column Text(Column c, string name, string description)
+    {
+        var t = c.Rename(name);
+        t.Unit = null;
+        t.Description = description;
         return t;
     }
 }

@@ -68,11 +68,11 @@ public static class TileMerger
         private readonly double[] _feh = new double[n], _lo = new double[n], _hi = new double[n], _lim = new double[n];
         private readonly FehLimitSide[] _side = new FehLimitSide[n];
         private readonly MetallicityStatus[] _status = new MetallicityStatus[n];
-        private readonly int[] _start = new int[n], _length = new int[n];
-        private readonly long[] _offset = new long[n];
-        private readonly float[] _values = values <= Array.MaxLength ? new float[values]
+        private readonly int[] _start = new int[n], _length = new int[n], _offset = new int[n];
+        private byte[]? _stride;
+        private readonly Half[] _values = values <= Array.MaxLength ? new Half[values]
             : throw new MethodException($"the stored likelihoods need {values} values, more than one array holds; use a coarser grid_step");
-        private long _used;
+        private int _used;
         private MetallicityResult? _first;
 
         public void Add(int[] rows, MetallicityResult m, int tile, string path)
@@ -81,6 +81,9 @@ public static class TileMerger
             if (_first is { } f && (l.GridMin != f.Likelihoods.GridMin || l.GridStep != f.Likelihoods.GridStep || l.GridCount != f.Likelihoods.GridCount
                                     || m.EnsembleMembers != f.EnsembleMembers || m.ColourNodeStep != f.ColourNodeStep))
                 throw new InputException($"tile {tile} was run with another [Fe/H] grid or calibration than the tiles before it: run the tiles again", file: path);
+            if (_first is null && l.Stride is not null) _stride = new byte[n];
+            if ((l.Stride is null) != (_stride is null))
+                throw new InputException($"tile {tile} stores its likelihoods with another layout than the tiles before it: run the tiles again", file: path);
             _first ??= m;
             for (int k = 0; k < rows.Length; k++)
             {
@@ -88,6 +91,7 @@ public static class TileMerger
                 _feh[i] = m.Feh[k]; _lo[i] = m.FehLo[k]; _hi[i] = m.FehHi[k]; _lim[i] = m.FehLimit[k];
                 _side[i] = m.LimitSide[k]; _status[i] = m.Status[k];
                 _start[i] = l.Start[k]; _length[i] = l.Length[k];
+                if (_stride is not null) _stride[i] = l.Stride![k];
                 if (l.Length[k] == 0) continue;
                 var w = l.Window(k);
                 if (_used + w.Length > _values.LongLength) throw new InputException("the tile holds more likelihood values than its head says", file: path);
@@ -107,7 +111,7 @@ public static class TileMerger
                 Likelihoods = new FehLikelihoods
                 {
                     GridMin = f.Likelihoods.GridMin, GridStep = f.Likelihoods.GridStep, GridCount = f.Likelihoods.GridCount,
-                    Offset = _offset, Start = _start, Length = _length, Values = _values,
+                    Offset = _offset, Start = _start, Length = _length, Stride = _stride, Values = _values,
                 },
             };
         }

@@ -117,6 +117,8 @@ public static class TileResultFile
         w.Write(l.GridCount);
         Put(w, l.Start);
         Put(w, l.Length);
+        w.Write(l.Stride is not null);
+        if (l.Stride is { } stride) Put(w, stride);
         // Windows in star order, whatever order the assigner laid them out in.
         w.Write(WindowTotal(m));
         for (int i = 0; i < l.StarCount; i++) w.Write(MemoryMarshal.AsBytes(l.Window(i)));
@@ -136,17 +138,19 @@ public static class TileResultFile
         int gridCount = rd.ReadInt32();
         var start = Get<int>(rd);
         var length = Get<int>(rd);
+        var stride = rd.ReadBoolean() ? Get<byte>(rd) : null;
         long total = rd.ReadInt64();
-        var values = new float[total];
+        if (total > Array.MaxLength) throw new EndOfStreamException();
+        var values = new Half[total];
         ReadExactly(rd, MemoryMarshal.AsBytes(values.AsSpan()));
-        var offset = new long[length.Length];
-        long at = 0;
+        var offset = new int[length.Length];
+        int at = 0;
         for (int i = 0; i < length.Length; i++) { offset[i] = length[i] > 0 ? at : 0; at += length[i]; }
         return new MetallicityResult
         {
             Feh = feh, FehLo = lo, FehHi = hi, FehLimit = lim, LimitSide = side, Status = status, Counts = CountsOf(status),
             ColourNodeStep = nodeStep, EnsembleMembers = members,
-            Likelihoods = new FehLikelihoods { GridMin = gridMin, GridStep = gridStep, GridCount = gridCount, Offset = offset, Start = start, Length = length, Values = values },
+            Likelihoods = new FehLikelihoods { GridMin = gridMin, GridStep = gridStep, GridCount = gridCount, Offset = offset, Start = start, Length = length, Stride = stride, Values = values },
         };
     }
 

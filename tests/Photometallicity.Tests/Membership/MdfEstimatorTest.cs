@@ -15,8 +15,8 @@ public class MdfEstimatorTest
     {
         var rng = new Rng(seed);
         const double gmin = -4, step = 0.01; const int count = 501;
-        var off = new long[n]; var start = new int[n]; var len = new int[n];
-        var vals = new List<float>();
+        var off = new int[n]; var start = new int[n]; var len = new int[n];
+        var vals = new List<Half>();
         var x = new double[n]; var e = new double[n];
         for (int i = 0; i < n; i++)
         {
@@ -26,7 +26,7 @@ public class MdfEstimatorTest
             off[i] = vals.Count; start[i] = j0; len[i] = j1 - j0 + 1;
             double norm = 0;
             for (int j = j0; j <= j1; j++) norm += Math.Exp(-0.5 * Math.Pow((gmin + j * step - x[i]) / e[i], 2));
-            for (int j = j0; j <= j1; j++) vals.Add((float)(Math.Exp(-0.5 * Math.Pow((gmin + j * step - x[i]) / e[i], 2)) / (norm * step)));
+            for (int j = j0; j <= j1; j++) vals.Add((Half)(Math.Exp(-0.5 * Math.Pow((gmin + j * step - x[i]) / e[i], 2)) / (norm * step)));
         }
         return (new FehLikelihoods { GridMin = gmin, GridStep = step, GridCount = count, Offset = off, Start = start, Length = len, Values = vals.ToArray() }, x, e);
     }

@@ -112,8 +112,8 @@ internal sealed class SyntheticField
     private static FehLikelihoods Likelihoods(Rng rng, List<double> feh, List<double> mag, double limit)
     {
         int n = feh.Count;
-        var off = new long[n]; var start = new int[n]; var len = new int[n];
-        var vals = new List<float>();
+        var off = new int[n]; var start = new int[n]; var len = new int[n];
+        var vals = new List<Half>();
         for (int i = 0; i < n; i++)
         {
             off[i] = vals.Count;
@@ -127,7 +127,7 @@ internal sealed class SyntheticField
             var win = new double[j1 - j0 + 1];
             for (int j = j0; j <= j1; j++) { double z = (GridMin + j * GridStep - obs) / sig; win[j - j0] = Math.Exp(-0.5 * z * z); }
             double norm = win.Sum() * GridStep;
-            foreach (var v in win) vals.Add((float)(v / norm));
+            foreach (var v in win) vals.Add((Half)(v / norm));
             start[i] = j0; len[i] = win.Length;
         }
         return new FehLikelihoods { GridMin = GridMin, GridStep = GridStep, GridCount = GridCount, Offset = off, Start = start, Length = len, Values = vals.ToArray() };

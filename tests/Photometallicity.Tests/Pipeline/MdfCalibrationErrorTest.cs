@@ -31,7 +31,7 @@ public class MdfCalibrationErrorTest
         var result = new MetallicityResult
         {
             Feh = feh, FehLo = feh, FehHi = feh, FehLimit = new double[n], LimitSide = new FehLimitSide[n], Status = new MetallicityStatus[n],
-            Likelihoods = new FehLikelihoods { GridMin = -4, GridStep = 0.01, GridCount = 1, Offset = new long[n], Start = new int[n], Length = new int[n], Values = [] },
+            Likelihoods = new FehLikelihoods { GridMin = -4, GridStep = 0.01, GridCount = 1, Offset = new int[n], Start = new int[n], Length = new int[n], Values = [] },
             Counts = new Dictionary<MetallicityStatus, int>(), ColourNodeStep = 0.01, EnsembleMembers = 400,
         };
         var p = Enumerable.Repeat(1.0, n).ToArray();

@@ -16,24 +16,26 @@ internal sealed class CsvColumnBuilder
     private enum Kind { AllMissing, Integer, Real, Boolean, Text }
 
     private readonly bool _forceNumeric;
+    private readonly Utf8Column.Builder? _compact; // forced text kept as UTF-8 bytes
     private readonly SentinelSet _sentinels;
     private Kind _kind;
-    private long[]? _longs;
-    private double[]? _doubles;
-    private bool[]? _bools;
-    private string?[]? _strings;
-    private bool[]? _missing;
+    private BlockList<long>? _longs;
+    private BlockList<double>? _doubles;
+    private BlockList<bool>? _bools;
+    private BlockList<string?>? _strings;
+    private BlockList<bool>? _missing;
     private int _count;
     private bool _valueSeen;   // a cell that is not a missing marker has been seen (sentinels included)
     private bool _valueBefore; // ... before the current cell
 
-    public CsvColumnBuilder(string name, int index, bool forceText, bool forceNumeric, SentinelSet sentinels)
+    public CsvColumnBuilder(string name, int index, bool forceText, bool forceNumeric, SentinelSet sentinels, bool compactText = false)
     {
         Name = name;
         Index = index;
         _forceNumeric = forceNumeric;
         _sentinels = sentinels;
         if (forceText) _kind = Kind.Text;
+        if (forceText && compactText) _compact = new Utf8Column.Builder(name, 1 << 16);
     }
 
     public string Name { get; }
@@ -50,10 +52,17 @@ internal sealed class CsvColumnBuilder
     public void Add(ReadOnlySpan<byte> cell, CsvReader reader, string path, long row)
     {
         int i = _count;
+        if (_compact is not null)
+        {
+            if (CsvCells.IsMissingToken(cell) && !CsvCells.IsQuotedEmpty(reader.GetRawSpan(Index))) _compact.AddMissing();
+            else _compact.Add(cell);
+            _count++;
+            return;
+        }
         if (_kind == Kind.Text)
         {
-            EnsureCapacity(ref _strings, i + 1);
-            _strings![i] = CsvCells.IsMissingToken(cell) && !CsvCells.IsQuotedEmpty(reader.GetRawSpan(Index)) ? null : CsvCells.ToText(cell);
+            _strings ??= new();
+            _strings[i] = CsvCells.IsMissingToken(cell) && !CsvCells.IsQuotedEmpty(reader.GetRawSpan(Index)) ? null : CsvCells.ToText(cell);
             _count++;
             return;
         }
@@ -69,8 +78,7 @@ internal sealed class CsvColumnBuilder
                 {
                     if (_kind == Kind.AllMissing) _kind = Kind.Integer;
                     if (_sentinels.Matches(l)) { AddMissing(); return; }
-                    EnsureCapacity(ref _longs, i + 1);
-                    _longs![i] = l;
+                    (_longs ??= new())[i] = l;
                     break;
                 }
                 if (CsvCells.TryParseDouble(cell, out double d0))
@@ -82,8 +90,7 @@ internal sealed class CsvColumnBuilder
                 if (_kind == Kind.AllMissing && !_forceNumeric && CsvCells.TryParseBoolean(cell, out bool b0))
                 {
                     _kind = Kind.Boolean;
-                    EnsureCapacity(ref _bools, i + 1);
-                    _bools![i] = b0;
+                    (_bools ??= new())[i] = b0;
                     break;
                 }
                 NotNumeric(cell, path, row);
@@ -99,8 +106,7 @@ internal sealed class CsvColumnBuilder
             case Kind.Boolean:
                 if (CsvCells.TryParseBoolean(cell, out bool b))
                 {
-                    EnsureCapacity(ref _bools, i + 1);
-                    _bools![i] = b;
+                    (_bools ??= new())[i] = b;
                     break;
                 }
                 ToText(cell);
@@ -118,20 +124,22 @@ internal sealed class CsvColumnBuilder
     public Column ToColumn()
     {
         int n = _count;
-        bool[]? mask = _missing is null ? null : Trim(_missing, n);
+        if (_compact is not null) return _compact.ToColumn();
+        bool[]? mask = _missing?.ToArray(n);
+        _missing = null;
         switch (_kind)
         {
             case Kind.Integer:
-                return new Column<long>(Name, Trim(_longs ?? [], n), mask);
+                return new Column<long>(Name, Take(ref _longs, n), mask);
             case Kind.Real:
-                var d = Trim(_doubles ?? [], n);
+                var d = Take(ref _doubles, n);
                 if (mask is not null)
                     for (int r = 0; r < n; r++) if (mask[r]) d[r] = double.NaN;
                 return new Column<double>(Name, d);
             case Kind.Boolean:
-                return new Column<bool>(Name, Trim(_bools ?? [], n), mask);
+                return new Column<bool>(Name, Take(ref _bools, n), mask);
             case Kind.Text:
-                return new Column<string>(Name, Trim(_strings ?? [], n)!);
+                return new Column<string>(Name, Take(ref _strings, n)!);
             default:
                 var nan = new double[n];
                 Array.Fill(nan, double.NaN);
@@ -143,15 +151,13 @@ internal sealed class CsvColumnBuilder
     {
         int i = _count;
         if (double.IsNaN(d) || _sentinels.Matches(d)) { AddMissing(); return; }
-        EnsureCapacity(ref _doubles, i + 1);
-        _doubles![i] = d;
+        (_doubles ??= new())[i] = d;
         _count++;
     }
 
     private void AddMissing()
     {
-        EnsureCapacity(ref _missing, _count + 1);
-        _missing![_count] = true;
+        (_missing ??= new())[_count] = true;
         _count++;
     }
 
@@ -159,7 +165,7 @@ internal sealed class CsvColumnBuilder
     {
         if (_kind == Kind.Integer && _longs is not null)
         {
-            _doubles = new double[_longs.Length];
+            _doubles = new BlockList<double>();
             for (int r = 0; r < _count; r++) _doubles[r] = _longs[r];
             _longs = null;
         }
@@ -175,7 +181,7 @@ internal sealed class CsvColumnBuilder
     /// <summary>Switches to text; the earlier rows that held values are read again later.</summary>
     private void ToText(ReadOnlySpan<byte> cell)
     {
-        _strings = new string?[Math.Max(16, _count * 2)];
+        _strings = new BlockList<string?>();
         if (_valueBefore) BackfillRows = _count;
         _longs = null;
         _doubles = null;
@@ -184,18 +190,11 @@ internal sealed class CsvColumnBuilder
         _strings[_count++] = CsvCells.ToText(cell);
     }
 
-    private void EnsureCapacity<T>(ref T[]? array, int needed)
+    /// <summary>The builder's values as an exact-length array (zeros when none were stored); the blocks are released.</summary>
+    private static T[] Take<T>(ref BlockList<T>? list, int n)
     {
-        if (array is null) { array = new T[Math.Max(1024, needed)]; return; }
-        if (array.Length >= needed) return;
-        Array.Resize(ref array, Math.Max(needed, checked(array.Length * 2)));
-    }
-
-    private static T[] Trim<T>(T[] a, int n)
-    {
-        if (a.Length == n) return a;
-        var t = new T[n];
-        Array.Copy(a, t, Math.Min(n, a.Length));
-        return t;
+        var a = list?.ToArray(n) ?? new T[n];
+        list = null;
+        return a;
     }
 }

@@ -56,20 +56,34 @@ public static class CsvTableReader
     {
         var sentinels = new SentinelSet(options.MissingSentinels);
         CsvColumnBuilder[] builders;
+        string[] names;
+        int rows = 0;
         using (var reader = Open(path))
         {
-            builders = CreateBuilders(reader.Headers, path, options, sentinels);
-            int n = builders.Length;
+            var all = CreateBuilders(reader.Headers, path, options, sentinels);
+            names = all.Select(b => b.Name).ToArray();
+            builders = all.Where(b => options.Keeps(b.Name)).ToArray();
+            int n = all.Length;
             while (reader.Read())
             {
+                rows++;
                 long row = reader.RowNumber;
                 if (reader.FieldCount != n)
                     throw new InputException(CsvMessages.RaggedRow(reader.FieldCount, n), path, row);
-                for (int c = 0; c < n; c++) builders[c].Add(reader.GetSpan(c), reader, path, row);
+                foreach (var b in builders) b.Add(reader.GetSpan(b.Index), reader, path, row);
             }
         }
         Backfill(path, builders);
-        return new Table(builders.Select(b => b.ToColumn()), path);
+        // One column at a time, so that the scan's blocks and the final arrays of all columns are never held together.
+        var columns = new List<Column>(builders.Length);
+        for (int c = 0; c < builders.Length; c++)
+        {
+            columns.Add(builders[c].ToColumn());
+            builders[c] = null!;
+        }
+        var table = columns.Count > 0 ? new Table(columns, path) : new Table(rows, path);
+        if (builders.Length < names.Length) table.ColumnsInFile = names;
+        return table;
     }
 
     private static CsvColumnBuilder[] CreateBuilders(IReadOnlyList<string> headers, string path, ReadOptions options, SentinelSet sentinels)
@@ -82,7 +96,7 @@ public static class CsvTableReader
             string name = headers[c].Trim();
             if (name.Length == 0) throw new InputException(CsvMessages.EmptyHeaderName(c + 1), path);
             if (!first.TryAdd(name, c + 1)) throw new InputException(CsvMessages.DuplicateHeaderName(c + 1, name, first[name]), path);
-            builders[c] = new CsvColumnBuilder(name, c, options.TextColumns.Contains(name), options.NumericColumns.Contains(name), sentinels);
+            builders[c] = new CsvColumnBuilder(name, c, options.TextColumns.Contains(name), options.NumericColumns.Contains(name), sentinels, options.CompactText);
         }
         return builders;
     }

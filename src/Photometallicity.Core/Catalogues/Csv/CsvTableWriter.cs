@@ -64,13 +64,8 @@ public static class CsvTableWriter
         Column<short> s => Integer(s),
         Column<byte> b => Integer(b),
         Column<bool> t => (w, r) => w.WriteField(Masked(t.Missing, r) ? ReadOnlySpan<char>.Empty : t.Values[r] ? "true" : "false"),
-        Column<string> s => (w, r) =>
-        {
-            string? v = s.Values[r];
-            if (v is null || Masked(s.Missing, r)) w.WriteField(ReadOnlySpan<char>.Empty);
-            else if (v.Length == 0) w.WriteField(v, CsvQuoting.Always);
-            else w.WriteField(v);
-        },
+        Column<string> s => (w, r) => WriteText(w, Masked(s.Missing, r) ? null : s.Values[r]),
+        Utf8Column u => (w, r) => WriteText(w, u.GetString(r)),
         _ => (w, r) => w.WriteField(column.GetString(r) ?? ""),
     };
 
@@ -98,4 +93,12 @@ public static class CsvTableWriter
     }
 
     private static bool Masked(bool[]? mask, int row) => mask is not null && mask[row];
+
+    /// <summary>A missing text (null) as an empty cell, an empty string as "".</summary>
+    private static void WriteText(CsvWriter w, string? v)
+    {
+        if (v is null) w.WriteField(ReadOnlySpan<char>.Empty);
+        else if (v.Length == 0) w.WriteField(v, CsvQuoting.Always);
+        else w.WriteField(v);
+    }
 }

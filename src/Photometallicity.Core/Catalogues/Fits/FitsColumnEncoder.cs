@@ -10,17 +10,16 @@ namespace Photometallicity.Catalogues.Fits;
 /// column has missing rows; byte 0 for L; all NUL bytes for A. Strings are written as UTF-8 (plain ASCII for ASCII
 /// text, which is all the standard defines) and padded with spaces, so an empty string reads back as empty, not missing.
 /// </summary>
+/// <remarks>Strings are encoded chunk by chunk straight from the column (a first pass measures the widest), so writing a
+/// table never holds a byte copy of every string.</remarks>
 internal sealed class FitsColumnEncoder
 {
-    private readonly byte[][]? _strings;
-
-    private FitsColumnEncoder(Column column, char code, int width, long? nullValue, byte[][]? strings)
+    private FitsColumnEncoder(Column column, char code, int width, long? nullValue)
     {
         Column = column;
         Code = code;
         Width = width;
         Null = nullValue;
-        _strings = strings;
     }
 
     public Column Column { get; }
@@ -40,25 +39,27 @@ internal sealed class FitsColumnEncoder
     {
         switch (column)
         {
-            case Column<double> c: return new(c, 'D', 8, null, null);
-            case Column<float> c: return new(c, 'E', 4, null, null);
-            case Column<bool> c: return new(c, 'L', 1, null, null);
+            case Column<double> c: return new(c, 'D', 8, null);
+            case Column<float> c: return new(c, 'E', 4, null);
+            case Column<bool> c: return new(c, 'L', 1, null);
             case Column<string> c:
                 {
-                    var bytes = new byte[c.Length][];
                     int width = 1;
                     for (int i = 0; i < c.Length; i++)
-                    {
-                        if (c.IsMissing(i)) continue;
-                        bytes[i] = Encoding.UTF8.GetBytes(c.Values[i]);
-                        width = Math.Max(width, bytes[i].Length);
-                    }
-                    return new(c, 'A', width, null, bytes);
+                        if (!c.IsMissing(i)) width = Math.Max(width, Encoding.UTF8.GetByteCount(c.Values[i]));
+                    return new(c, 'A', width, null);
+                }
+            case Utf8Column u:
+                {
+                    int width = 1;
+                    for (int i = 0; i < u.Length; i++)
+                        if (!u.IsMissing(i)) width = Math.Max(width, u.Utf8(i).Length);
+                    return new(u, 'A', width, null);
                 }
             default:
                 {
                     var (code, width, tnull) = FitsNullValue.Choose(column);
-                    return new(column, code, width, tnull, null);
+                    return new(column, code, width, tnull);
                 }
         }
     }
@@ -89,14 +90,23 @@ internal sealed class FitsColumnEncoder
                 for (int r = 0; r < count; r++, off += rowBytes)
                     chunk[off] = c.IsMissing(firstRow + r) ? (byte)0 : c.Values[firstRow + r] ? (byte)'T' : (byte)'F';
                 break;
-            case Column<string>:
+            case Column<string> c:
                 for (int r = 0; r < count; r++, off += rowBytes)
                 {
                     var field = chunk.Slice(off, Width);
-                    var s = _strings![firstRow + r];
-                    if (s is null) { field.Clear(); continue; }
-                    s.CopyTo(field);
-                    field[s.Length..].Fill((byte)' ');
+                    if (c.IsMissing(firstRow + r)) { field.Clear(); continue; }
+                    int n = Encoding.UTF8.GetBytes(c.Values[firstRow + r], field);
+                    field[n..].Fill((byte)' ');
+                }
+                break;
+            case Utf8Column u:
+                for (int r = 0; r < count; r++, off += rowBytes)
+                {
+                    var field = chunk.Slice(off, Width);
+                    if (u.IsMissing(firstRow + r)) { field.Clear(); continue; }
+                    var bytes = u.Utf8(firstRow + r);
+                    bytes.CopyTo(field);
+                    field[bytes.Length..].Fill((byte)' ');
                 }
                 break;
             default:

@@ -28,13 +28,14 @@ public static class FitsTableReader
         if (present < tableBytes)
             throw new InputException(Format(FitsMessages.DataTruncated, layout.RowCount, layout.RowBytes, tableBytes, hdu.DataStart, present), path);
 
-        var decoders = layout.Fields.Select(f => new FitsColumnDecoder(f, layout.RowCount)).ToArray();
+        var decoders = layout.Fields.Where(f => options.Keeps(f.Name)).Select(f => new FitsColumnDecoder(f, layout.RowCount)).ToArray();
         ReadRows(stream, hdu.DataStart, layout, decoders);
 
         var notes = new List<string>();
         var table = new Table(layout.RowCount, path);
         foreach (var d in decoders)
             table.Add(MissingSentinels.Apply(FitsColumnBuilder.Build(d, path, notes), options.MissingSentinels));
+        if (decoders.Length < layout.Fields.Count) table.ColumnsInFile = layout.Fields.Select(f => f.Name).ToArray();
         foreach (var card in hdu.Header.Cards)
         {
             if (card.Kind == FitsValueKind.Commentary && card.Keyword is not ("COMMENT" or "HISTORY")) continue;

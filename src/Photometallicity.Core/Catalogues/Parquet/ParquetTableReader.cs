@@ -40,6 +40,7 @@ public static class ParquetTableReader
             var columns = new List<Column>();
             foreach (var f in reader.Schema.DataFields)
             {
+                if (!options.Keeps(f.Name)) continue;
                 try
                 {
                     columns.Add(await ReadColumn(reader, f, (int)rows, sentinels, path));
@@ -50,6 +51,7 @@ public static class ParquetTableReader
                 }
             }
             var table = new Table(columns, path);
+            if (columns.Count < reader.Schema.DataFields.Length) table.ColumnsInFile = reader.Schema.DataFields.Select(f => f.Name).ToArray();
             ParquetMetadataKeys.Apply(reader.CustomMetadata, table, path);
             return table;
         }

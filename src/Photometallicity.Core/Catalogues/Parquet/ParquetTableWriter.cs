@@ -48,6 +48,7 @@ public static class ParquetTableWriter
         Column<byte> x => WriteStruct(g, f, x, start, n),
         Column<bool> x => WriteStruct(g, f, x, start, n),
         Column<string> x => WriteStrings(g, f, x, start, n),
+        Utf8Column x => WriteStrings(g, f, x, start, n),
         _ => throw new NotSupportedException($"Column type {c.Type} has no Parquet mapping."),
     };
 
@@ -59,10 +60,10 @@ public static class ParquetTableWriter
         return g.WriteAsync<T>(f, (ReadOnlyMemory<T?>)v);
     }
 
-    private static Task WriteStrings(ParquetRowGroupWriter g, DataField f, Column<string> c, int start, int n)
+    private static Task WriteStrings(ParquetRowGroupWriter g, DataField f, Column c, int start, int n)
     {
         var v = new string?[n];
-        for (int i = 0; i < n; i++) v[i] = c.IsMissing(start + i) ? null : c.Values[start + i];
+        for (int i = 0; i < n; i++) v[i] = c.GetString(start + i);
         return g.WriteAsync(f, v!);
     }
 
