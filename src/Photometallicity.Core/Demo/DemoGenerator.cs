@@ -18,7 +18,7 @@ public static class DemoGenerator
     public static DemoField Generate(int stars, ulong seed, DemoTruth? truth = null)
     {
         if (stars < 500) throw new ArgumentOutOfRangeException(nameof(stars), stars, "the demo field needs at least 500 stars");
-        truth ??= new DemoTruth();
+        truth ??= DemoTruth.ForStars(stars);
         var rng = Seeds.For(seed, "demo-field");
         var errB = new PhotometricErrorModel("b480", truth.BlueDepth5, truth.ErrorFloor);
         var errR = new PhotometricErrorModel("r770", truth.RedDepth5, truth.ErrorFloor);

@@ -8,6 +8,27 @@ public sealed record DemoTruth
 {
     public const string GalaxyName = "Vellum Dwarf (invented)";
 
+    /// <summary>Above this many stars the invented field grows into a survey mosaic instead of getting denser.</summary>
+    public const int SurveyScaleFrom = 1_000_000;
+
+    /// <summary>
+    /// The truth for a field of <paramref name="stars"/> stars: the defaults up to <see cref="SurveyScaleFrom"/>; beyond,
+    /// the galaxy keeps the members it has at that size and the square field widens so that the foreground's surface
+    /// density stays what it is there (a wide survey field, not an ever more crowded one: at 10^7 stars in the default
+    /// field the stars would lie a fraction of an arcsecond apart, where no cross-match is meaningful).
+    /// </summary>
+    public static DemoTruth ForStars(int stars)
+    {
+        var t = new DemoTruth();
+        if (stars <= SurveyScaleFrom) return t;
+        double members = t.MemberFraction * SurveyScaleFrom, foreground = (1 - t.MemberFraction) * SurveyScaleFrom;
+        return t with
+        {
+            MemberFraction = members / stars,
+            FieldHalfWidthArcmin = t.FieldHalfWidthArcmin * Math.Sqrt((stars - members) / foreground),
+        };
+    }
+
     public double CentreRaDeg { get; init; } = 137.62;   // invented
     public double CentreDecDeg { get; init; } = -38.47;  // invented
     public double DistanceModulus { get; init; } = 21.2; // invented

@@ -106,8 +106,7 @@ public static class PipelineRunner
             var noMembers = Enumerable.Repeat(double.NaN, inputs.Broadband.RowCount).ToArray();
             return new PipelineResult { Config = config, Inputs = inputs, Match = match, Photometry = photometry, Scope = scope, Model = cm,
                 Standards = standards, Calibration = calibration, Metallicity = metallicity, Dwarf = dwarf, Warnings = warnings, Timings = timings,
-            PeakMemoryMiB = memory,
-                Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers, dwarf?.Metallicity) };
+                PeakMemoryMiB = memory, Stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, noMembers, dwarf?.Metallicity) };
         }
 
         var magBand = config.Membership.MagnitudeBand == "red" ? config.Red : config.Blue;
