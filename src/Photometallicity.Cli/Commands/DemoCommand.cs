@@ -24,8 +24,8 @@ internal static class DemoCommand
             string config = DemoWriter.Write(field, dir, s);
             ctx.Error.WriteLine($"wrote the invented inputs and {Path.GetFileName(config)} to {dir}");
             if (pr.GetValue(inputsOnly)) return 0;
-            var result = PipelineExecution.RunAndWrite(ctx, config, null);
-            ctx.Error.WriteLine($"demo done: results in {result.Config.Output.Directory} (start with summary.html); the invented truth is in {Path.Combine(dir, "truth")}");
+            string results = PipelineExecution.RunAndWrite(ctx, config, null);
+            ctx.Error.WriteLine($"demo done: results in {results} (start with summary.html); the invented truth is in {Path.Combine(dir, "truth")}");
             return 0;
         }));
         return cmd;

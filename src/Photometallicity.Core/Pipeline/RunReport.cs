@@ -53,27 +53,34 @@ public static class RunReport
             rd = Pick(residuals.RequireDoubles("residual_dex"), fitted);
             acc = fitted.Select(i => status.GetString(i) == "accepted").ToArray();
         }
-        double[] colour = stars.ReadOnlyDoubles("colour0"), index = stars.ReadOnlyDoubles("index0"), p = stars.ReadOnlyDoubles("p_member");
+        double[] p = stars.ReadOnlyDoubles("p_member");
+        // The scatter figures draw at most MaxScatterPoints stars, every k-th row: beyond that the markers only cover
+        // one another, and a vector figure of 10^7 markers is gigabytes. Histograms (the MDF) use every star.
+        int n = stars.RowCount, step = Math.Max(1, (n + MaxScatterPoints - 1) / MaxScatterPoints);
+        int[]? shown = step == 1 ? null : Enumerable.Range(0, (n + step - 1) / step).Select(j => j * step).ToArray();
+        double[] S(double[] v) => shown is null ? v : Pick(v, shown);
+        string drawn = shown is null ? "" : $" Every {step}th star is drawn ({shown.Length} of {n}).";
+        double[] colour = S(stars.ReadOnlyDoubles("colour0")), index = S(stars.ReadOnlyDoubles("index0")), pShown = S(p);
 
         Add(ColourIndexPlot.Write(new ColourIndexPlotData(rc, ri, acc, IsoCurves(model), colour, index), Path.Combine(plots, "colour_index")),
-            "Colour-index diagram: the calibration's iso-[Fe/H] curves over its validity domain, the standards (accepted and rejected) and the field stars.", "Calibration");
+            "Colour-index diagram: the calibration's iso-[Fe/H] curves over its validity domain, the standards (accepted and rejected) and the field stars." + drawn, "Calibration");
         if (rc.Length > 0)
             Add(CalibrationResidualsPlot.Write(new CalibrationResidualsPlotData(rc, rf, rd, acc, RmsDex: model.RmsDex), Path.Combine(plots, "calibration_residuals")),
                 "Calibration residuals in [Fe/H] against colour and against spectroscopic [Fe/H]; rejected standards marked.", "Calibration residuals");
 
         var mem = summary["members"]!.AsObject();
         string magBand = (string?)mem["magnitude_band"] ?? "blue";
-        double[] mag = stars.ReadOnlyDoubles(magBand == "red" ? "red0" : "blue0");
+        double[] mag = S(stars.ReadOnlyDoubles(magBand == "red" ? "red0" : "blue0"));
         double[]? ridgeMag = mem["ridge_mag"]?.AsArray().Select(v => v is null ? double.NaN : (double)v).ToArray();
         double[]? ridgeCol = mem["ridge_colour"]?.AsArray().Select(v => v is null ? double.NaN : (double)v).ToArray();
-        Add(CmdPlot.Write(new CmdPlotData(colour, mag, p, ridgeCol, ridgeMag), Path.Combine(plots, "cmd")),
-            "Colour-magnitude diagram coloured by membership probability, with the fitted red-giant locus.", "Colour-magnitude diagram");
+        Add(CmdPlot.Write(new CmdPlotData(colour, mag, pShown, ridgeCol, ridgeMag), Path.Combine(plots, "cmd")),
+            "Colour-magnitude diagram coloured by membership probability, with the fitted red-giant locus." + drawn, "Colour-magnitude diagram");
 
         double ra0 = Num(mem["centre_ra_deg"]), dec0 = Num(mem["centre_dec_deg"]);
-        var (xi, eta) = Gnomonic(stars.ReadOnlyDoubles("ra"), stars.ReadOnlyDoubles("dec"), ra0, dec0);
+        var (xi, eta) = Gnomonic(S(stars.ReadOnlyDoubles("ra")), S(stars.ReadOnlyDoubles("dec")), ra0, dec0);
         var ellipse = double.IsFinite(ra0) ? new HalfLightEllipse(0, 0, Num(mem["half_light_arcmin"]), Num(mem["ellipticity"]), Num(mem["position_angle_deg"])) : null;
-        Add(SkyMapPlot.Write(new SkyMapPlotData(xi, eta, p, ellipse), Path.Combine(plots, "sky")),
-            "Sky map in the tangent plane about the fitted centre (east to the left), coloured by membership probability, with the fitted half-light ellipse.", "Sky map");
+        Add(SkyMapPlot.Write(new SkyMapPlotData(xi, eta, pShown, ellipse), Path.Combine(plots, "sky")),
+            "Sky map in the tangent plane about the fitted centre (east to the left), coloured by membership probability, with the fitted half-light ellipse." + drawn, "Sky map");
 
         var mdf = summary["mdf"] as JsonObject;
         double[] feh = stars.ReadOnlyDoubles("feh"), lo = stars.ReadOnlyDoubles("feh_lo"), hi = stars.ReadOnlyDoubles("feh_hi");
@@ -118,6 +125,9 @@ public static class RunReport
         }
         return curves;
     }
+
+    /// <summary>Most stars a scatter figure draws (program's choice).</summary>
+    public const int MaxScatterPoints = 200_000;
 
     internal static double Num(JsonNode? n) => n is null ? double.NaN : (double)n;
 
