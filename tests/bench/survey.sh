@@ -28,7 +28,7 @@ import json, sys
 s = json.load(open(sys.argv[1]))
 p = s.get("provenance", s)
 t, m = p.get("timings_s", {}), p.get("peak_memory_mib", {})
-for k in t: print(f"  stage {k:<28} {t[k]:9.2f} s {m.get(k, float('nan')):9.0f} MiB")
+for k in t: print(f"  stage {k:<28} {t[k]:9.2f} s, peak so far {m.get(k, float('nan')):9.0f} MiB")
 PY
 echo "== tiled (order $order)"
 timed split "$exe" split "$dir/field/config.json" --order "$order" --out "$dir/work"

@@ -24,7 +24,7 @@ internal static class PipelineExecution
         {
             var clock = Stopwatch.StartNew();
             files = [.. files, .. RunReport.Write(config.Output.Directory, log)];
-            log.LogInformation("figures and summary page took {Seconds:F2} s, peak memory {MiB:F0} MiB", clock.Elapsed.TotalSeconds, PeakMemory.TakeMiB());
+            log.LogInformation("figures and summary page took {Seconds:F2} s, peak memory so far {MiB:F0} MiB", clock.Elapsed.TotalSeconds, PeakMemory.SoFarMiB());
         }
         ctx.Error.WriteLine($"wrote {files.Count} files to {config.Output.Directory}:");
         foreach (var f in files) ctx.Error.WriteLine("  " + Path.GetRelativePath(config.Output.Directory, f));
@@ -37,7 +37,7 @@ internal static class PipelineExecution
         var result = PipelineRunner.Run(config, log, new ProgressReporter(ctx.Error), scope);
         var clock = Stopwatch.StartNew();
         var files = RunOutputWriter.Write(result, config.Output.Directory);
-        log.LogInformation("writing the tables took {Seconds:F2} s, peak memory {MiB:F0} MiB", clock.Elapsed.TotalSeconds, PeakMemory.TakeMiB());
+        log.LogInformation("writing the tables took {Seconds:F2} s, peak memory so far {MiB:F0} MiB", clock.Elapsed.TotalSeconds, PeakMemory.SoFarMiB());
         return (files, result.Membership is not null);
     }
 }

@@ -3,25 +3,19 @@ using System.Diagnostics;
 namespace Photometallicity.Pipeline;
 
 /// <summary>
-/// Peak resident memory of this process between two calls of <see cref="TakeMiB"/>: on Linux the kernel's high-water
-/// mark (VmHWM in /proc/self/status), reset after each reading by writing 5 to /proc/self/clear_refs (proc(5)); elsewhere,
-/// or where the reset is refused, the process's peak working set so far (then a stage's figure is the run's peak up to it).
+/// Peak resident memory of this process so far: on Linux the kernel's high-water mark (VmHWM in /proc/self/status,
+/// proc(5)), elsewhere the process's peak working set. Read at the end of every stage, so a stage's figure is the peak
+/// up to and including it. The mark is never reset: outside tools (GNU time, a batch system's accounting) see the same
+/// peak the program reports.
 /// </summary>
 public static class PeakMemory
 {
     private const string Status = "/proc/self/status";
-    private const string ClearRefs = "/proc/self/clear_refs";
 
-    /// <summary>The peak since the last call (MiB), and resets the mark.</summary>
-    public static double TakeMiB()
+    /// <summary>The peak so far, MiB.</summary>
+    public static double SoFarMiB()
     {
         double mib = ReadHighWaterKiB() is { } kib ? kib / 1024.0 : Process.GetCurrentProcess().PeakWorkingSet64 / (1024.0 * 1024.0);
-        try
-        {
-            if (File.Exists(ClearRefs)) File.WriteAllText(ClearRefs, "5");
-        }
-        catch (IOException) { }
-        catch (UnauthorizedAccessException) { }
         return Math.Round(mib, 1);
     }
 

@@ -36,6 +36,6 @@ public sealed record PipelineResult
     public required IReadOnlyList<string> Warnings { get; init; }
     public required IReadOnlyList<(string Stage, double Seconds)> Timings { get; init; }
 
-    /// <summary>Peak resident memory of each stage (MiB), see <see cref="PeakMemory"/>.</summary>
+    /// <summary>Peak resident memory of the process up to the end of each stage (MiB), see <see cref="PeakMemory"/>.</summary>
     public IReadOnlyList<(string Stage, double MiB)> PeakMemoryMiB { get; init; } = [];
 }

@@ -22,15 +22,14 @@ public static class PipelineRunner
         var log = logger ?? NullLogger.Instance;
         var timings = new List<(string, double)>();
         var memory = new List<(string, double)>();
-        PeakMemory.TakeMiB();
         var warnings = new List<string>();
         var clock = Stopwatch.StartNew();
         void Lap(string stage)
         {
             timings.Add((stage, Math.Round(clock.Elapsed.TotalSeconds, 3)));
-            double mib = PeakMemory.TakeMiB();
+            double mib = PeakMemory.SoFarMiB();
             memory.Add((stage, mib));
-            log.LogInformation("{Stage} took {Seconds:F2} s, peak memory {MiB:F0} MiB", stage, clock.Elapsed.TotalSeconds, mib);
+            log.LogInformation("{Stage} took {Seconds:F2} s, peak memory so far {MiB:F0} MiB", stage, clock.Elapsed.TotalSeconds, mib);
             clock.Restart();
         }
 
