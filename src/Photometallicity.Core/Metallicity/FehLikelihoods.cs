@@ -9,7 +9,9 @@ namespace Photometallicity.Metallicity;
 /// sums value x integrand x <see cref="Spacing"/> over the stored values, which stands for the sum over every grid point.
 /// <para>
 /// Storage: the stride is chosen per star so that about three samples fall per standard deviation of the star's
-/// likelihood (k_i = round(sd_i / (3 GridStep)), at least 1), which leaves ~32 stored values for a Gaussian likelihood cut
+/// likelihood (k_i = round(sd_i / (3 GridStep)), at least 1; smaller where the likelihood changes by more than a factor e
+/// between samples above 1% of its peak, as for one rising steeply to both ends of the domain), which leaves ~32 stored
+/// values for a Gaussian likelihood cut
 /// at 1e-6 of its peak (+/- 5.3 sd) whatever its width, instead of up to the whole grid. Interior values are the
 /// likelihood itself; the two end values carry end-corrected quadrature weights (Euler-Maclaurin, see
 /// StarSolver.EndCorrectedWeights), so that a likelihood cut sharply by the domain keeps its edge where the full grid has
@@ -17,7 +19,9 @@ namespace Photometallicity.Metallicity;
 /// s the width of the product of the likelihood and the integrated Gaussian): below 1e-7 for h = sd/3 unless the Gaussian
 /// is much narrower than the likelihood (s &lt; h / 2), and then that star carries little information about it anyway.
 /// On the committed samples/ field the membership step's MDF moves by 2.6e-5 dex in mean and 3.7e-5 dex in sigma from the
-/// every-grid-point storage, and no membership probability by more than 0.003 (FehLikelihoodCompactionTest).
+/// every-grid-point storage, and no membership probability by more than 0.003 (FehLikelihoodCompactionTest); on the
+/// 3 x 10^6-star demo field by 1.4e-5 / 1.8e-5 dex, with 174 of 2.6 million probabilities moving by more than 0.005
+/// (at most 0.019), for 43 M stored values instead of 255 M.
 /// Values are IEEE half precision (11-bit significand: relative rounding 2^-11 = 5e-4 per value, independent between
 /// neighbours; the densities lie between ~1e-7 and 1/GridStep, inside the half range). Per stored star: 2 bytes per
 /// value (~60 bytes) plus 4 + 4 + 4 + 1 bytes of Offset, Start, Length and Stride, against up to 4 bytes per grid point

@@ -170,7 +170,8 @@ internal sealed class StarSolver
 
     /// <summary>
     /// Stores the likelihood (no prior) over the span where it is at least 1e-6 of its peak, sampled every k grid points
-    /// (k = round(sd / (3 GridStep)), at least 1, sd the standard deviation of the likelihood over that span) as
+    /// (k = round(sd / (3 GridStep)), at least 1, sd the standard deviation of the likelihood over that span, and at most
+    /// 1 / max |ln L(j+1) - ln L(j)| over the points above 1% of the peak, for likelihoods with steep flanks) as
     /// half-precision values normalised to sum x k x GridStep = 1, so that a consumer's midpoint sum at spacing k GridStep
     /// stands for the sum over every grid point of the span.
     /// The samples start at the span's low end, or end at its high end when that end is hard (cut by the calibration's
@@ -198,6 +199,18 @@ internal sealed class StarSolver
         double mean = s1 / s0, sd = Math.Sqrt(Math.Max(s2 / s0 - mean * mean, 0));
         int span = hi - lo + 1;
         int k = (int)Math.Clamp(Math.Round(sd / StoredPointsPerSigma, MidpointRounding.AwayFromZero), 1, byte.MaxValue);
+        // The sd alone misjudges a likelihood with two peaks (rising to both ends of the domain, with a deep valley between):
+        // its steep flanks would fall between samples. So the stride also keeps the likelihood from changing by more than a
+        // factor e between neighbouring samples wherever it is at least 1% of its peak.
+        float significant = peak * 1e-2f;
+        double maxStep = 0;
+        for (int j = lo; j < hi; j++)
+        {
+            float u = like[j], v = like[j + 1];
+            if (Math.Max(u, v) < significant) continue;
+            maxStep = u > 0 && v > 0 ? Math.Max(maxStep, Math.Abs(Math.Log((double)v / u))) : double.PositiveInfinity;
+        }
+        if (maxStep > 0) k = Math.Max(1, Math.Min(k, (int)Math.Min(byte.MaxValue, Math.Floor(1.0 / maxStep))));
         if (_o.StoreEveryGridPoint) k = 1;
         k = Math.Min(k, Math.Max(1, span - 1));
         if (hardLo && hardHi)

@@ -39,7 +39,9 @@ public class FehLikelihoodCompactionTest
         var withCompact = MembershipStep.Run(config, r.Inputs, ra, dec, r.Photometry, compact, magErr, NullLogger.Instance);
         var withFull = MembershipStep.Run(config, r.Inputs, ra, dec, r.Photometry, full, magErr, NullLogger.Instance);
         var (mc, mf) = (withCompact.Mdf!, withFull.Mdf!);
-        // Measured when written: 2.6e-5 dex in the mean, -3.7e-5 in sigma, 0.0028 at most in a membership probability.
+        // Measured when written: 2.6e-5 dex in the mean, -3.7e-5 in sigma, 0.0028 at most in a membership probability,
+        // 77 163 values stored instead of 459 369. (On the 3 x 10^6-star demo field: -1.4e-5 and -1.8e-5 dex, 0.019 at most,
+        // 174 of 2.6 million stars above 0.005, 43 M values instead of 255 M.)
         Assert.InRange(mc.Mean - mf.Mean, -0.001, 0.001);
         Assert.InRange(mc.Sigma - mf.Sigma, -0.001, 0.001);
         double worst = 0;
