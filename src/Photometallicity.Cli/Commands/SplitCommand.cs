@@ -14,7 +14,7 @@ internal static class SplitCommand
     {
         var config = new Argument<string>("CONFIG") { Description = "The run's JSON config (as for 'run')." };
         var order = new Option<int>("--order") { Description = "HEALPix order of the tiles (Nside = 2^order; order 6 gives tiles of about 0.92 deg, 8 about 0.23 deg).", Required = true };
-        var margin = new Option<double?>("--margin") { Description = "Margin kept around every tile, arcsec (default and minimum: 1.2 x (match radius + offset correction) + 0.1)." };
+        var margin = new Option<double?>("--margin") { Description = "Margin kept around every tile, arcsec (default and minimum: the larger of 1.2 x (match radius + offset correction) and the reach of the field's chains of competing match candidates, plus 0.1)." };
         var outDir = new Option<string>("--out") { Description = "Work directory for the plan, the whole-field solutions and the tiles.", Required = true };
         var cmd = new Command("split", "Prepare a tiled run: solve the cross-match and fit the calibration once for the whole field, then write every non-empty HEALPix tile's rows (with a margin) and plan.json into the work directory. Then run 'tile' for each tile (or 'batch' for a Slurm script) and 'merge'.")
         {
