@@ -37,7 +37,7 @@ public class Utf8ColumnTest
         Assert.Equal("", u.GetString(1));   // quoted empty: a value
         Assert.Null(u.GetString(2));        // empty cell: missing
         var picked = u.Select([0, 4]);
-        Assert.Equal(["VD0000001", "Ångström"], new[] { picked.GetString(0), picked.GetString(1) });
+        Assert.Equal(new string?[] { "VD0000001", "Ångström" }, new[] { picked.GetString(0), picked.GetString(1) });
     }
 
     [Theory]
