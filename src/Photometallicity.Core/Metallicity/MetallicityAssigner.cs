@@ -130,8 +130,7 @@ public sealed class MetallicityAssigner
             offset[i] = length[i] > 0 ? offset[i] + (int)bases[p / chunk] : 0;
         }
 
-        var counts = Enum.GetValues<MetallicityStatus>().ToDictionary(s => s, _ => 0);
-        foreach (var s in status) counts[s]++;
+        var counts = MetallicityResult.CountsOf(status);
         logger?.LogInformation("[Fe/H] for {Stars} stars with {Members} ensemble members on {Nodes} colour nodes ({Step:F4} mag) in {Seconds:F1} s: {Counts}",
             n, _grid.Members, _grid.ColourNodes, _grid.ColourStep, clock.Elapsed.TotalSeconds,
             string.Join(", ", counts.Where(kv => kv.Value > 0).Select(kv => $"{kv.Key} {kv.Value}")));

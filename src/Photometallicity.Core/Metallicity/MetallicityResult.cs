@@ -25,4 +25,12 @@ public sealed record MetallicityResult
     public required int EnsembleMembers { get; init; }
 
     public int Count => Feh.Length;
+
+    /// <summary>Number of stars with each status, every status present (zero included), in the enum's order.</summary>
+    public static IReadOnlyDictionary<MetallicityStatus, int> CountsOf(MetallicityStatus[] status)
+    {
+        var counts = Enum.GetValues<MetallicityStatus>().ToDictionary(s => s, _ => 0);
+        foreach (var s in status) counts[s]++;
+        return counts;
+    }
 }

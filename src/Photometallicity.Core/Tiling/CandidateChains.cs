@@ -8,7 +8,7 @@ namespace Photometallicity.Tiling;
 /// whether pair e is accepted depends only on the pairs that share a source with e and come before it, and on theirs
 /// in turn: the pairs reachable from e along chains of adjacent pairs, each earlier than the one before. A tile
 /// reproduces the assignment of a source exactly when it holds the complete neighbourhood of every source on those
-/// chains (<see cref="TileMatchCheck"/>). <see cref="LargestReach"/> measures how far from a source those chains
+/// chains (<see cref="TileMatchCheck"/>). <see cref="Measure"/> gives the largest reach: how far from a source those chains
 /// go: for every pair, the bounding box (in unit-vector space) of all sources on its chains is the box of its own two
 /// sources joined with the boxes of the earlier pairs adjacent to it, a dynamic programme over the pairs in increasing
 /// order; a left source's chains lie in the union of its pairs' boxes.
@@ -40,12 +40,30 @@ public static class CandidateChains
     /// </summary>
     public static int LongestChain(CandidatePairs pairs, int rightCount)
     {
-        int p = pairs.PairCount;
-        if (p == 0) return 0;
         var leftOf = LeftOf(pairs);
-        var order = new int[p];
-        for (int k = 0; k < p; k++) order[k] = k;
+        return LongestChain(pairs, rightCount, leftOf, AssignmentOrder(pairs, leftOf));
+    }
+
+    /// <summary>Both measures from one sort of the pairs: the longest chain (pairs) and the largest reach.</summary>
+    public static (int LongestChain, Units.Angle LargestReach) Measure(CandidatePairs pairs, UnitVectors left, UnitVectors right)
+    {
+        var leftOf = LeftOf(pairs);
+        var order = AssignmentOrder(pairs, leftOf);
+        return (LongestChain(pairs, right.Count, leftOf, order), LargestReach(pairs, left, right, leftOf, order));
+    }
+
+    /// <summary>Pair indices in the assignment's order.</summary>
+    private static int[] AssignmentOrder(CandidatePairs pairs, int[] leftOf)
+    {
+        var order = new int[pairs.PairCount];
+        for (int k = 0; k < order.Length; k++) order[k] = k;
         Array.Sort(order, (a, b) => Compare(pairs, leftOf, a, b));
+        return order;
+    }
+
+    private static int LongestChain(CandidatePairs pairs, int rightCount, int[] leftOf, int[] order)
+    {
+        if (order.Length == 0) return 0;
         var atLeft = new int[pairs.LeftCount];
         var atRight = new int[rightCount];
         int longest = 0;
@@ -61,17 +79,12 @@ public static class CandidateChains
     }
 
     /// <summary>
-    /// The largest distance from a left source to a corner of the bounding box of every source on its chains (an
+    /// The largest reach: the largest distance from a left source to a corner of the bounding box of every source on its chains (an
     /// upper bound on how far from the source the sources that decide its match can lie), on the observed positions.
     /// </summary>
-    public static Units.Angle LargestReach(CandidatePairs pairs, UnitVectors left, UnitVectors right)
+    private static Units.Angle LargestReach(CandidatePairs pairs, UnitVectors left, UnitVectors right, int[] leftOf, int[] order)
     {
-        int p = pairs.PairCount;
-        if (p == 0) return Units.Angle.FromRadians(0);
-        var leftOf = LeftOf(pairs);
-        var order = new int[p];
-        for (int k = 0; k < p; k++) order[k] = k;
-        Array.Sort(order, (a, b) => Compare(pairs, leftOf, a, b));
+        if (order.Length == 0) return Units.Angle.FromRadians(0);
         var atLeft = Boxes(left);
         var atRight = Boxes(right);
         Span<double> box = stackalloc double[6];

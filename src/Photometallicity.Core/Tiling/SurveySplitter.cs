@@ -19,7 +19,7 @@ public sealed record SplitOptions(int Order, Angle? Margin = null);
 /// global/. It then writes each non-empty HEALPix tile's rows, with their margin, as FITS tables in tiles/NNNNN/,
 /// and last plan.json (so a split that stopped half-way has no plan and no tile will run on it).
 /// The margin is at least the larger of 1.2 x (match radius + the largest shift the offset correction applies) and the
-/// farthest reach of any source's chains of competing candidates (<see cref="CandidateChains.LargestReach"/>, itself an
+/// farthest reach of any source's chains of competing candidates (<see cref="CandidateChains.Measure"/>, itself an
 /// upper bound), plus 0.1 arcsec (1.2 and 0.1 are the program's choice: the pairs lie within the radius after the
 /// correction, the tiles are cut before it).
 /// </summary>
@@ -42,8 +42,7 @@ public static class SurveySplitter
         // The candidate pairs of the whole field, with the solution the tiles will use, give the longest chain of
         // competing candidates; the margin must hold every source on it as well as their own candidates.
         CrossMatcher.RunWith(bra, bdec, nra, ndec, solution, out var pairs, log);
-        int chain = CandidateChains.LongestChain(pairs, nra.Length);
-        var chainReach = CandidateChains.LargestReach(pairs, UnitVectors.FromDegrees(bra, bdec), UnitVectors.FromDegrees(nra, ndec));
+        var (chain, chainReach) = CandidateChains.Measure(pairs, UnitVectors.FromDegrees(bra, bdec), UnitVectors.FromDegrees(nra, ndec));
         double reach = solution.Radius.Radians + solution.LargestShift(FieldRadius(solution, nra, ndec)).Radians;
         var needed = Angle.FromRadians(Math.Max(1.2 * reach, chainReach.Radians) + Angle.FromArcseconds(0.1).Radians);
         log.LogInformation("split: the longest chain of competing match candidates has {Chain} pairs and reaches at most {ChainReach:0.##} arcsec from its source; radius + offset correction {Reach:0.##} arcsec",

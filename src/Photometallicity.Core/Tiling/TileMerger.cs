@@ -106,7 +106,7 @@ public static class TileMerger
             var f = _first!;
             return new MetallicityResult
             {
-                Feh = _feh, FehLo = _lo, FehHi = _hi, FehLimit = _lim, LimitSide = _side, Status = _status, Counts = TileResultFile.CountsOf(_status),
+                Feh = _feh, FehLo = _lo, FehHi = _hi, FehLimit = _lim, LimitSide = _side, Status = _status, Counts = MetallicityResult.CountsOf(_status),
                 ColourNodeStep = f.ColourNodeStep, EnsembleMembers = f.EnsembleMembers,
                 Likelihoods = new FehLikelihoods
                 {

@@ -148,18 +148,10 @@ public static class TileResultFile
         for (int i = 0; i < length.Length; i++) { offset[i] = length[i] > 0 ? at : 0; at += length[i]; }
         return new MetallicityResult
         {
-            Feh = feh, FehLo = lo, FehHi = hi, FehLimit = lim, LimitSide = side, Status = status, Counts = CountsOf(status),
+            Feh = feh, FehLo = lo, FehHi = hi, FehLimit = lim, LimitSide = side, Status = status, Counts = MetallicityResult.CountsOf(status),
             ColourNodeStep = nodeStep, EnsembleMembers = members,
             Likelihoods = new FehLikelihoods { GridMin = gridMin, GridStep = gridStep, GridCount = gridCount, Offset = offset, Start = start, Length = length, Stride = stride, Values = values },
         };
-    }
-
-    /// <summary>Number of stars with each status, every status present (the order <see cref="MetallicityAssigner"/> uses).</summary>
-    public static IReadOnlyDictionary<MetallicityStatus, int> CountsOf(MetallicityStatus[] status)
-    {
-        var counts = Enum.GetValues<MetallicityStatus>().ToDictionary(s => s, _ => 0);
-        foreach (var s in status) counts[s]++;
-        return counts;
     }
 
     private static void Put<T>(BinaryWriter w, T[] a) where T : unmanaged
