@@ -7,14 +7,19 @@ using Photometallicity.Numerics;
 namespace Photometallicity.Calibration;
 
 /// <summary>
-/// The calibration stage: fits X0 = f(C0, [Fe/H]) to the standards (see <see cref="EffectiveVarianceFit"/>),
-/// chooses the degree by cross-validation, rejects outliers, derives the validity domain from the accepted
-/// standards, checks monotonicity in [Fe/H] and builds the bootstrap ensemble. No file I/O.
+/// The calibration stage: fits X0 = f(C0, [Fe/H]) to the standards with a forward model monotonic in [Fe/H] by construction
+/// (<see cref="MonotoneBasis"/>) and an explicit outlier component (<see cref="MixtureFit"/>), chooses the model's form by
+/// cross-validation (<see cref="ModelChoice"/>), gives every standard its probability of being an outlier, measures how the
+/// model's error grows beyond the standards (<see cref="ExtrapolationCalibrator"/>), and builds the bootstrap ensemble. Also
+/// keeps the convex hull of the accepted standards, for users who ask for the strict domain. No file I/O.
 /// </summary>
 public static class CalibrationFitter
 {
     /// <summary>Smallest colour spread (mag) and [Fe/H] spread (dex) a 2-D calibration can be fitted to (project choice).</summary>
     public const double MinColourSpread = 0.05, MinFehSpread = 0.1;
+
+    /// <summary>A standard with p_outlier above this is called an outlier (the more likely of the two components).</summary>
+    public const double OutlierThreshold = 0.5;
 
     public static CalibrationResult Run(CalibrationStandards standards, CalibrationOptions options, ILogger? logger = null, IProgress<double>? progress = null)
     {
@@ -39,37 +44,44 @@ public static class CalibrationFitter
             usable[i] = preReason[i] is null;
         }
         var idx = Enumerable.Range(0, n).Where(i => usable[i]).ToArray();
-        RequireCoverage(standards, idx, n);
+        RequireCoverage(standards, idx, n, options);
 
         var data = new FitData(standards, usable);
-        var basisFor = BasisMaker(standards, idx);
         var units = ResampleUnits.Build(standards.Group, usable);
         int folds = Math.Min(options.Folds, units.Count);
         var fold = units.AssignFolds(folds, n, Seeds.Derive(options.Seed, "calibration-cv"));
 
-        // 2. Degree: fixed, or by cross-validation.
-        var sel = DegreeSelection.Run(data, standards, idx, units, fold, folds, basisFor, options, logger);
-        int degree = sel.Degree;
-        var cv = sel.Cv;
-        var basis = basisFor(degree);
+        // 2. The model's form by cross-validation (or the user's fixed choice).
+        var specs = new List<ModelSpec>();
+        foreach (int d in options.Degree is { } fd ? [fd] : Enumerable.Range(1, options.MaxDegree))
+        {
+            if (!options.Monotone) { specs.Add(new PolynomialModelSpec(d)); continue; }
+            foreach (int k in options.Knots is { } fk ? [fk] : Enumerable.Range(0, options.MaxKnots + 1))
+                specs.Add(new MonotoneModelSpec(d, k));
+        }
+        var choice = ModelChoice.Run(data, idx, fold, folds, specs, options.Outliers, logger);
+        var spec = choice.Chosen.Spec;
+        var basis = choice.Chosen.Basis!;
         int np = basis.Count;
 
-        // 3. Best fit with clipping.
-        var fit = new EffectiveVarianceFit(data, basis, options.ClipSigma);
+        // 3. Best fit.
+        var fit = new MixtureFit(data, basis, options.Outliers);
         var ones = new double[n];
         Array.Fill(ones, 1.0);
         string? err = fit.Fit(ones);
         if (err is not null)
-            throw new MethodException($"The calibration fit failed at degree {degree} ({np} coefficients) with {idx.Length} usable standards: {err}.");
+            throw new MethodException($"The calibration fit failed for the model \"{basis.Describe}\" with {idx.Length} usable standards: {err}.");
+        if (fit.Passes > 200)
+            logger.LogWarning("calibration: the outlier mixture did not settle after 200 passes; the last pass is used");
         var coef = fit.Coefficients.ToArray();
-        if (fit.ClipIterations > EffectiveVarianceFit.MaxClipIterations)
-            logger.LogWarning("calibration: outlier clipping did not settle after {N} passes; the last pass is used", EffectiveVarianceFit.MaxClipIterations);
         var cov = new double[np * np];
-        if (!fit.Covariance(cov)) throw new MethodException($"The calibration's Fisher matrix is singular at degree {degree}; the accepted standards do not constrain {np} coefficients.");
+        if (!fit.Covariance(cov)) throw new MethodException($"The calibration's Fisher matrix is singular for the model \"{basis.Describe}\"; the accepted standards do not constrain its {np} coefficients.");
 
         // 4. Verdicts, residuals.
         var verdicts = new StandardVerdict[n];
         var accepted = new List<int>();
+        var cvResid = choice.Chosen.Residual;
+        int flagged = 0;
         for (int i = 0; i < n; i++)
         {
             if (!usable[i])
@@ -77,42 +89,57 @@ public static class CalibrationFitter
                 verdicts[i] = new StandardVerdict(standards.Id[i], preStatus[i], preReason[i]!, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN);
                 continue;
             }
-            double r = fit.Residual[i], z = fit.Z(i), g = fit.GradientFeh[i];
-            bool ok = fit.Active[i];
-            if (ok) accepted.Add(i);
+            double r = fit.Residual[i], z = fit.Z(i), g = fit.GradientFeh[i], po = fit.POutlier(i);
+            bool ok = po <= OutlierThreshold;
+            if (ok) accepted.Add(i); else flagged++;
             string reason = ok ? "accepted"
-                : string.Create(CultureInfo.InvariantCulture, $"outlier: residual {z:+0.0;-0.0} sigma_eff (|z| > {options.ClipSigma}), index residual {r:+0.0000;-0.0000} mag");
+                : string.Create(CultureInfo.InvariantCulture, $"outlier: p_outlier {po:F3}, residual {z:+0.0;-0.0} sigma_eff, index residual {r:+0.0000;-0.0000} mag = {r / g:+0.00;-0.00} dex");
+            double cvr = i < cvResid.Length ? cvResid[i] : double.NaN;
             verdicts[i] = new StandardVerdict(standards.Id[i], ok ? StandardStatus.Accepted : StandardStatus.RejectedOutlier, reason,
-                r, z, r / g, cv.Residual[i], cv.ResidualDex[i]);
+                r, z, r / g, cvr, cvr / g, po);
         }
+        if (flagged * 2 > idx.Length || fit.OutlierFraction >= MixtureFit.MaxOutlierFraction - 1e-9)
+            throw new MethodException(string.Create(CultureInfo.InvariantCulture,
+                $"{flagged} of the {idx.Length} usable standards are more likely outliers than not (fitted outlier share {fit.OutlierFraction:F2}): more than half of them disagree with any smooth calibration. Check the standards' [Fe/H] column, their cross-match to the catalogue and the band columns."));
         if (accepted.Count < np + 1)
-            throw new MethodException($"Only {accepted.Count} standards were accepted for {np} coefficients (degree {degree}); at least {np + 1} are needed.");
+            throw new MethodException($"Only {accepted.Count} standards were accepted for {np} coefficients (model \"{basis.Describe}\"); at least {np + 1} are needed.");
         double rmsIndex = Rms(accepted.Select(i => verdicts[i].ResidualIndex));
         double rmsDex = Rms(accepted.Select(i => verdicts[i].ResidualDex));
         double cvRmsIndex = Rms(accepted.Select(i => verdicts[i].CvResidualIndex));
         double cvRmsDex = Rms(accepted.Select(i => verdicts[i].CvResidualDex));
 
-        // 5. Validity domain from the accepted standards, monotonicity in [Fe/H].
+        // 5. The strict domain (convex hull of the accepted standards) and the support box with its extrapolation error.
         var hullPoints = ValidityDomain.ConvexHull(accepted.Select(i => (standards.Colour0[i], standards.Feh[i])));
-        var mono = MonotonicityCheck.Run(basis, coef, new ValidityDomain(hullPoints, []), options.MinSensitivity);
-        foreach (var note in mono.Notes) logger.LogWarning("calibration: {Note}", note);
-        var domain = new ValidityDomain(hullPoints, mono.Excluded);
-        double span = domain.ColourMax - domain.ColourMin, excludedSpan = mono.Excluded.Sum(e => e.ColourMax - e.ColourMin);
-        if (span > 0 && excludedSpan >= span * (1 - 1e-9))
-            throw new MethodException($"The degree-{degree} model fitted to {accepted.Count} standards is not usefully monotonic in [Fe/H] at any colour of the domain ({string.Join("; ", mono.Notes)}). The standards do not constrain the metallicity dependence; add standards spanning more [Fe/H] or lower the degree.");
+        var domain = new ValidityDomain(hullPoints, []);
+        var start = fit.Current;
+        var extra = ExtrapolationCalibrator.Run(data, accepted.ToArray(), spec, options.Outliers);
+        var notes = new List<string>
+        {
+            string.Create(CultureInfo.InvariantCulture, $"model-form error beyond the standards: {extra.KappaColour:F3} mag of index per mag of colour (from {extra.HeldOutColour} held-out standards across the bluest and reddest gaps), sensitivity uncertain by a factor e^{extra.KappaFeh:F3} beyond their [Fe/H] (from {extra.HeldOutFeh} held-out standards)"),
+        };
+        if (extra.Note.Length > 0) notes.Add(extra.Note);
+        foreach (var note in notes) logger.LogInformation("calibration: {Note}", note);
 
-        // 6. Bootstrap ensemble.
+        // 6. Bootstrap ensemble, each member with its own draw of the model-form error.
         var boot = options.Bootstrap > 0
-            ? CalibrationBootstrap.Run(data, units, basis, options.ClipSigma, options.Bootstrap, options.Seed, options.MaxThreads, progress)
+            ? CalibrationBootstrap.Run(data, units, basis, options.Outliers, start, options.Bootstrap, options.Seed, options.MaxThreads, progress)
             : new CalibrationBootstrap.Outcome([], [], 0);
         var se = EnsembleStandardErrors(boot.Coefficients, np);
+        var draws = new double[boot.Coefficients.Length][];
+        for (int m = 0; m < draws.Length; m++)
+        {
+            var rng = Seeds.For(options.Seed, "calibration-extrapolation", m);
+            draws[m] = [rng.NextGaussian(0, 1), rng.NextGaussian(0, 1), rng.NextGaussian(0, 1), rng.NextGaussian(0, 1)];
+        }
+        var acc = accepted.ToArray();
+        var extrapolation = new Extrapolation(acc.Min(i => standards.Colour0[i]), acc.Max(i => standards.Colour0[i]),
+            acc.Min(i => standards.Feh[i]), acc.Max(i => standards.Feh[i]), extra.KappaColour, extra.KappaFeh, draws);
 
         var provenance = new SortedDictionary<string, string>(StringComparer.Ordinal);
         if (options.Provenance is not null) foreach (var kv in options.Provenance) provenance[kv.Key] = kv.Value;
         provenance["calibration.seed"] = options.Seed.ToString(CultureInfo.InvariantCulture);
-        provenance["calibration.degree"] = degree.ToString(CultureInfo.InvariantCulture);
+        provenance["calibration.model"] = basis.Describe;
         provenance["calibration.bootstrap"] = options.Bootstrap.ToString(CultureInfo.InvariantCulture);
-        provenance["calibration.clip_sigma"] = options.ClipSigma.ToString("R", CultureInfo.InvariantCulture);
 
         var model = new CalibrationModel
         {
@@ -123,6 +150,8 @@ public static class CalibrationFitter
             EnsembleCoefficients = boot.Coefficients,
             EnsembleSigmaInt = boot.SigmaInt,
             Domain = domain,
+            Extrapolation = extrapolation,
+            OutlierFraction = fit.OutlierFraction,
             Filters = options.Filters,
             RmsDex = rmsDex,
             RmsIndex = rmsIndex,
@@ -130,46 +159,36 @@ public static class CalibrationFitter
             StandardsRejected = n - accepted.Count,
             Provenance = provenance,
         };
-        logger.LogInformation("calibration: degree {Degree}, {Used} of {N} standards accepted, sigma_int {Sigma:F4} mag, rms {Rms:F4} mag = {RmsDex:F3} dex, {B} bootstrap replicates",
-            degree, accepted.Count, n, fit.SigmaInt, rmsIndex, rmsDex, options.Bootstrap);
+        logger.LogInformation("calibration: {Model}; {Used} of {N} standards accepted ({Flagged} flagged as outliers, fitted outlier share {Share:F3}), sigma_int {Sigma:F4} mag, rms {Rms:F4} mag = {RmsDex:F3} dex, {B} bootstrap replicates",
+            basis.Describe, accepted.Count, n, flagged, fit.OutlierFraction, fit.SigmaInt, rmsIndex, rmsDex, options.Bootstrap);
         return new CalibrationResult
         {
             Model = model,
             PerStandard = verdicts,
-            CvScoreByDegree = sel.Scores,
-            CvScoreErrorByDegree = sel.ScoreErrors,
-            IneligibleDegrees = sel.Ineligible,
-            Degree = degree,
-            DegreeReason = sel.Reason,
+            CvScores = choice.All.Select(c => new FormScore(c.Spec.ToString(), c.Spec.Count, c.Score, c.StandardError, c.Failure)).ToArray(),
+            Degree = spec is MonotoneModelSpec ms ? ms.ColourDegree : ((PolynomialModelSpec)spec).Degree,
+            DegreeReason = choice.Reason,
             CvRmsIndex = cvRmsIndex,
             CvRmsDex = cvRmsDex,
-            FehSlopeSign = mono.Sign,
-            MonotonicityNotes = mono.Notes,
+            OutlierFraction = fit.OutlierFraction,
+            Notes = notes,
             BootstrapRedrawn = boot.Redrawn,
-            ClippingPasses = fit.ClipIterations,
+            FitPasses = fit.Passes,
             BootstrapStandardErrors = se,
         };
     }
 
-    private static void RequireCoverage(CalibrationStandards s, int[] idx, int n)
+    private static void RequireCoverage(CalibrationStandards s, int[] idx, int n, CalibrationOptions options)
     {
-        const int p1 = 3; // degree 1: 1, u, v
+        int p1 = options.Monotone ? new MonotoneModelSpec(1, 0).Count : PolynomialBasis2D.CountFor(1); // the simplest form
         if (idx.Length < p1 + 2)
-            throw new MethodException($"{idx.Length} usable calibration standards of {n} given; the simplest model (degree 1) has {p1} coefficients and needs at least {p1 + 2} standards.");
+            throw new MethodException($"{idx.Length} usable calibration standards of {n} given; the simplest model (colour degree 1, no interior knot) has {p1} coefficients and needs at least {p1 + 2} standards.");
         double cmin = idx.Min(i => s.Colour0[i]), cmax = idx.Max(i => s.Colour0[i]);
         if (cmax - cmin < MinColourSpread)
             throw new MethodException($"The {idx.Length} usable standards are all one colour: C0 spans {cmin:F3} to {cmax:F3} mag ({cmax - cmin:F3} mag < {MinColourSpread} mag needed). Add standards of other colours.");
         double fmin = idx.Min(i => s.Feh[i]), fmax = idx.Max(i => s.Feh[i]);
         if (fmax - fmin < MinFehSpread)
             throw new MethodException($"The {idx.Length} usable standards are all one [Fe/H]: {fmin:F2} to {fmax:F2} dex ({fmax - fmin:F2} dex < {MinFehSpread} dex needed). Add standards of other metallicities.");
-    }
-
-    /// <summary>Basis centred on the usable standards' mid-range and scaled by their half-range (common practice).</summary>
-    private static Func<int, PolynomialBasis2D> BasisMaker(CalibrationStandards s, int[] idx)
-    {
-        double cmin = idx.Min(i => s.Colour0[i]), cmax = idx.Max(i => s.Colour0[i]);
-        double fmin = idx.Min(i => s.Feh[i]), fmax = idx.Max(i => s.Feh[i]);
-        return d => new PolynomialBasis2D(d, 0.5 * (cmin + cmax), 0.5 * (cmax - cmin), 0.5 * (fmin + fmax), 0.5 * (fmax - fmin));
     }
 
     private static double Rms(IEnumerable<double> values)

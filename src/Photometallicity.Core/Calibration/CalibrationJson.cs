@@ -13,7 +13,7 @@ namespace Photometallicity.Calibration;
 public static class CalibrationJson
 {
     public const string FormatName = "photometallicity-calibration";
-    public const int FormatVersion = 1;
+    public const int FormatVersion = 2;
 
     public static void Write(CalibrationModel model, CalibrationResult? result, string path) =>
         AtomicFile.Write(path, s => Write(model, result, s));
@@ -37,21 +37,53 @@ public static class CalibrationJson
         Num(w, "narrow_extinction", f.NarrowExtinction);
         w.WriteEndObject();
 
-        var b = model.Basis;
         w.WriteStartObject("model");
-        w.WriteString("form", "index0 = sum_k coefficients[k] * u^i v^j, u = (colour0 - colour_centre) / colour_scale, v = ([Fe/H] - feh_centre) / feh_scale");
-        w.WriteNumber("degree", b.Degree);
-        Num(w, "colour_centre", b.ColourCentre);
-        Num(w, "colour_scale", b.ColourScale);
-        Num(w, "feh_centre", b.FehCentre);
-        Num(w, "feh_scale", b.FehScale);
+        switch (model.Basis)
+        {
+            case PolynomialBasis2D b:
+                w.WriteString("kind", "polynomial");
+                w.WriteString("form", "index0 = sum_k coefficients[k] * u^i v^j, u = (colour0 - colour_centre) / colour_scale, v = ([Fe/H] - feh_centre) / feh_scale");
+                w.WriteNumber("degree", b.Degree);
+                Num(w, "colour_centre", b.ColourCentre);
+                Num(w, "colour_scale", b.ColourScale);
+                Num(w, "feh_centre", b.FehCentre);
+                Num(w, "feh_scale", b.FehScale);
+                break;
+            case MonotoneBasis b:
+                w.WriteString("kind", "monotone");
+                w.WriteString("form", "index0 = sum_a p_a u^a + sum_j max(0, alpha_j (1 - t) + beta_j t) I_j([Fe/H]), t = (colour0 - colour_lo) / (colour_hi - colour_lo), u = 2 t - 1 (tangent continuation outside [-1, 1]); I_j quadratic I-splines on the knots [feh_lo x3, feh_knots, feh_hi x3] (Ramsay 1988), tangent continuation outside [feh_lo, feh_hi]; coefficients in the order p_0..p_d, alpha_1..alpha_J, beta_1..beta_J");
+                w.WriteNumber("colour_degree", b.ColourDegree);
+                Num(w, "colour_lo", b.ColourLo);
+                Num(w, "colour_hi", b.ColourHi);
+                Num(w, "feh_lo", b.Ramps.Lo);
+                Num(w, "feh_hi", b.Ramps.Hi);
+                Arr(w, "feh_knots", b.Ramps.Knots);
+                break;
+            default:
+                throw new InvalidOperationException($"no file form for the model {model.Basis.Describe}");
+        }
         w.WriteStartArray("terms");
-        foreach (var t in b.TermNames()) w.WriteStringValue(t);
+        foreach (var t in model.Basis.TermNames()) w.WriteStringValue(t);
         w.WriteEndArray();
         Arr(w, "coefficients", model.Coefficients);
         Arr(w, "coefficient_covariance", model.CoefficientCovariance);
         Num(w, "sigma_int_mag", model.SigmaInt);
+        Num(w, "outlier_fraction", model.OutlierFraction);
         w.WriteEndObject();
+
+        if (model.Extrapolation is { } x)
+        {
+            w.WriteStartObject("extrapolation");
+            w.WriteString("form", "beyond the support box, member m's index moves by kappa_colour * d_colour * z[m][0 blue | 1 red] and its change beyond the [Fe/H] support is scaled by exp(kappa_feh * z[m][2 metal-poor | 3 metal-rich])");
+            Arr(w, "support_colour", [x.ColourLo, x.ColourHi]);
+            Arr(w, "support_feh", [x.FehLo, x.FehHi]);
+            Num(w, "kappa_colour", x.KappaColour);
+            Num(w, "kappa_feh", x.KappaFeh);
+            w.WriteStartArray("z");
+            foreach (var z in x.Z) { w.WriteStartArray(); foreach (var v in z) Val(w, v); w.WriteEndArray(); }
+            w.WriteEndArray();
+            w.WriteEndObject();
+        }
 
         w.WriteStartObject("domain");
         w.WriteStartArray("hull");
@@ -89,20 +121,26 @@ public static class CalibrationJson
     private static void WriteFit(Utf8JsonWriter w, CalibrationResult r)
     {
         w.WriteStartObject("fit");
-        w.WriteNumber("degree", r.Degree);
-        w.WriteString("degree_reason", r.DegreeReason);
-        Arr(w, "cv_score_by_degree_mag2", r.CvScoreByDegree);
-        Arr(w, "cv_score_error_by_degree_mag2", r.CvScoreErrorByDegree);
-        w.WriteStartObject("ineligible_degrees");
-        foreach (var kv in r.IneligibleDegrees.OrderBy(kv => kv.Key)) w.WriteString(kv.Key.ToString(CultureInfo.InvariantCulture), kv.Value);
-        w.WriteEndObject();
+        w.WriteString("model_reason", r.DegreeReason);
+        w.WriteStartArray("cv_forms");
+        foreach (var f in r.CvScores)
+        {
+            w.WriteStartObject();
+            w.WriteString("form", f.Form);
+            w.WriteNumber("coefficients", f.Coefficients);
+            Num(w, "cv_mean_log_likelihood", f.Score);
+            Num(w, "cv_mean_log_likelihood_error", f.StandardError);
+            if (f.Failure is not null) w.WriteString("not_fitted", f.Failure);
+            w.WriteEndObject();
+        }
+        w.WriteEndArray();
         Num(w, "cv_rms_index_mag", r.CvRmsIndex);
         Num(w, "cv_rms_dex", r.CvRmsDex);
-        w.WriteNumber("feh_slope_sign", r.FehSlopeSign);
-        w.WriteStartArray("monotonicity_notes");
-        foreach (var s in r.MonotonicityNotes) w.WriteStringValue(s);
+        Num(w, "outlier_fraction", r.OutlierFraction);
+        w.WriteStartArray("notes");
+        foreach (var n in r.Notes) w.WriteStringValue(n);
         w.WriteEndArray();
-        w.WriteNumber("clipping_passes", r.ClippingPasses);
+        w.WriteNumber("fit_passes", r.FitPasses);
         w.WriteNumber("bootstrap_redrawn", r.BootstrapRedrawn);
         Arr(w, "bootstrap_standard_errors", r.BootstrapStandardErrors);
         w.WriteStartArray("standards");
@@ -117,6 +155,7 @@ public static class CalibrationJson
             Num(w, "residual_dex", v.ResidualDex);
             Num(w, "cv_residual_index_mag", v.CvResidualIndex);
             Num(w, "cv_residual_dex", v.CvResidualDex);
+            Num(w, "p_outlier", v.POutlier);
             w.WriteEndObject();
         }
         w.WriteEndArray();

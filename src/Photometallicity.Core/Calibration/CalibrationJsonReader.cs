@@ -10,7 +10,7 @@ namespace Photometallicity.Calibration;
 /// </summary>
 public static class CalibrationJsonReader
 {
-    private static readonly string[] TopKeys = ["format", "format_version", "filters", "model", "domain", "quality", "ensemble", "provenance", "fit"];
+    private static readonly string[] TopKeys = ["format", "format_version", "filters", "model", "domain", "extrapolation", "quality", "ensemble", "provenance", "fit"];
 
     public static CalibrationModel Read(string path)
     {
@@ -37,7 +37,7 @@ public static class CalibrationJsonReader
             if (!TopKeys.Contains(prop.Name)) throw r.Error(prop.Name, $"unknown key (known: {string.Join(", ", TopKeys)})");
         if (r.Str(root, "format", "") != CalibrationJson.FormatName) throw r.Error("format", $"must be \"{CalibrationJson.FormatName}\"");
         int version = r.Int(root, "format_version", "");
-        if (version != CalibrationJson.FormatVersion) throw r.Error("format_version", $"version {version} is not supported (this program reads version {CalibrationJson.FormatVersion})");
+        if (version is < 1 or > CalibrationJson.FormatVersion) throw r.Error("format_version", $"version {version} is not supported (this program reads versions 1 to {CalibrationJson.FormatVersion})");
 
         var fo = r.Obj(root, "filters", "");
         var filters = new FilterSet(r.Str(fo, "system", "filters"), r.Str(fo, "blue_band", "filters"), r.Str(fo, "red_band", "filters"),
@@ -45,12 +45,32 @@ public static class CalibrationJsonReader
             r.Dbl(fo, "red_extinction", "filters"), r.Dbl(fo, "narrow_extinction", "filters"));
 
         var mo = r.Obj(root, "model", "");
-        int degree = r.Int(mo, "degree", "model");
-        if (degree < 1 || degree > 4) throw r.Error("model.degree", $"{degree} is outside [1, 4]");
-        double cs = r.Dbl(mo, "colour_scale", "model"), fs = r.Dbl(mo, "feh_scale", "model");
-        if (!(cs > 0)) throw r.Error("model.colour_scale", "must be positive");
-        if (!(fs > 0)) throw r.Error("model.feh_scale", "must be positive");
-        var basis = new PolynomialBasis2D(degree, r.Dbl(mo, "colour_centre", "model"), cs, r.Dbl(mo, "feh_centre", "model"), fs);
+        string kind = mo.TryGetProperty("kind", out _) ? r.Str(mo, "kind", "model") : "polynomial";
+        IIndexBasis basis;
+        if (kind == "polynomial")
+        {
+            int degree = r.Int(mo, "degree", "model");
+            if (degree < 1 || degree > 4) throw r.Error("model.degree", $"{degree} is outside [1, 4]");
+            double cs = r.Dbl(mo, "colour_scale", "model"), fs = r.Dbl(mo, "feh_scale", "model");
+            if (!(cs > 0)) throw r.Error("model.colour_scale", "must be positive");
+            if (!(fs > 0)) throw r.Error("model.feh_scale", "must be positive");
+            basis = new PolynomialBasis2D(degree, r.Dbl(mo, "colour_centre", "model"), cs, r.Dbl(mo, "feh_centre", "model"), fs);
+        }
+        else if (kind == "monotone")
+        {
+            int cd = r.Int(mo, "colour_degree", "model");
+            if (cd < 1 || cd > 3) throw r.Error("model.colour_degree", $"{cd} is outside [1, 3]");
+            double cLo = r.Dbl(mo, "colour_lo", "model"), cHi = r.Dbl(mo, "colour_hi", "model");
+            if (!(cHi > cLo)) throw r.Error("model.colour_hi", "must be above colour_lo");
+            double fLo = r.Dbl(mo, "feh_lo", "model"), fHi = r.Dbl(mo, "feh_hi", "model");
+            if (!(fHi > fLo)) throw r.Error("model.feh_hi", "must be above feh_lo");
+            var knotsEl = r.Arr(mo, "feh_knots", "model");
+            var knots = r.DoubleArray(knotsEl, "model.feh_knots", knotsEl.GetArrayLength());
+            for (int k = 0; k < knots.Length; k++)
+                if (!(knots[k] > (k == 0 ? fLo : knots[k - 1]) && knots[k] < fHi)) throw r.Error($"model.feh_knots[{k}]", "knots must increase strictly inside (feh_lo, feh_hi)");
+            basis = new MonotoneBasis(cd, cLo, cHi, new MonotoneRamps(fLo, fHi, knots));
+        }
+        else throw r.Error("model.kind", $"\"{kind}\" is not a model kind (known: polynomial, monotone)");
         int p = basis.Count;
         var coef = r.Doubles(mo, "coefficients", "model", p);
         var cov = r.Doubles(mo, "coefficient_covariance", "model", p * p);
@@ -61,6 +81,9 @@ public static class CalibrationJsonReader
         var hull = r.Pairs(dom, "hull", "domain");
         if (hull.Count == 0) throw r.Error("domain.hull", "must hold at least one point");
         var excluded = r.Pairs(dom, "excluded_colours", "domain");
+
+        Extrapolation? extra = null;
+        double outlierFraction = mo.TryGetProperty("outlier_fraction", out _) ? r.DblOrNaN(mo, "outlier_fraction", "model") : double.NaN;
 
         var q = r.Obj(root, "quality", "");
         var en = r.Obj(root, "ensemble", "");
@@ -74,6 +97,24 @@ public static class CalibrationJsonReader
         }
         var ensSigma = r.Doubles(en, "sigma_int_mag", "ensemble", ens.Length);
         if (r.Int(en, "size", "ensemble") != ens.Length) throw r.Error("ensemble.size", $"does not match the {ens.Length} members listed");
+
+        if (root.TryGetProperty("extrapolation", out _))
+        {
+            var xo = r.Obj(root, "extrapolation", "");
+            var sc = r.Doubles(xo, "support_colour", "extrapolation", 2);
+            var sf = r.Doubles(xo, "support_feh", "extrapolation", 2);
+            if (!(sc[1] >= sc[0])) throw r.Error("extrapolation.support_colour", "must be [low, high]");
+            if (!(sf[1] >= sf[0])) throw r.Error("extrapolation.support_feh", "must be [low, high]");
+            double kc = r.Dbl(xo, "kappa_colour", "extrapolation"), kf = r.Dbl(xo, "kappa_feh", "extrapolation");
+            if (!(kc >= 0)) throw r.Error("extrapolation.kappa_colour", "must not be negative");
+            if (!(kf >= 0)) throw r.Error("extrapolation.kappa_feh", "must not be negative");
+            var za = r.Arr(xo, "z", "extrapolation");
+            if (za.GetArrayLength() != ens.Length) throw r.Error("extrapolation.z", $"has {za.GetArrayLength()} draws for {ens.Length} ensemble members");
+            var z = new double[ens.Length][];
+            int zi = 0;
+            foreach (var row in za.EnumerateArray()) { z[zi] = r.DoubleArray(row, $"extrapolation.z[{zi}]", 4); zi++; }
+            extra = new Extrapolation(sc[0], sc[1], sf[0], sf[1], kc, kf, z);
+        }
 
         var prov = new SortedDictionary<string, string>(StringComparer.Ordinal);
         var po = r.Obj(root, "provenance", "");
@@ -92,6 +133,8 @@ public static class CalibrationJsonReader
             EnsembleCoefficients = ens,
             EnsembleSigmaInt = ensSigma,
             Domain = new ValidityDomain(hull, excluded),
+            Extrapolation = extra,
+            OutlierFraction = outlierFraction,
             Filters = filters,
             RmsIndex = r.DblOrNaN(q, "rms_index_mag", "quality"),
             RmsDex = r.DblOrNaN(q, "rms_dex", "quality"),

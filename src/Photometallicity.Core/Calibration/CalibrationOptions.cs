@@ -9,14 +9,27 @@ public sealed record CalibrationOptions
     /// <summary>Master seed; the stage derives its streams from it by name.</summary>
     public ulong Seed { get; init; }
 
-    /// <summary>Polynomial degree of the forward model; null = chosen by cross-validation.</summary>
+    /// <summary>Degree of the forward model's colour polynomial (1..3); null = chosen by cross-validation.</summary>
     public int? Degree { get; init; }
 
-    /// <summary>Highest degree cross-validation may choose (1..4).</summary>
-    public int MaxDegree { get; init; } = 3;
+    /// <summary>Highest colour degree cross-validation may choose (1..3).</summary>
+    public int MaxDegree { get; init; } = 2;
 
-    /// <summary>Standards whose residual exceeds this many effective sigmas are rejected (iterative clipping).</summary>
-    public double ClipSigma { get; init; } = 3.5;
+    /// <summary>Interior [Fe/H] knots of the monotone ramps (0..4); null = chosen by cross-validation.</summary>
+    public int? Knots { get; init; }
+
+    /// <summary>Most interior knots cross-validation may choose (0..4).</summary>
+    public int MaxKnots { get; init; } = 2;
+
+    /// <summary>
+    /// The model's form: true (default) the monotone model (<see cref="MonotoneBasis"/>); false the full 2-D polynomial of
+    /// total degree <see cref="Degree"/> (or 1..<see cref="MaxDegree"/> by cross-validation), which is not monotonic by
+    /// construction (kept for comparison with earlier calibrations).
+    /// </summary>
+    public bool Monotone { get; init; } = true;
+
+    /// <summary>Fit an outlier component (default); false gives the plain effective-variance likelihood, every standard good.</summary>
+    public bool Outliers { get; init; } = true;
 
     /// <summary>Cross-validation folds (whole clusters stay in one fold).</summary>
     public int Folds { get; init; } = 5;
@@ -27,11 +40,6 @@ public sealed record CalibrationOptions
     /// <summary>Standards with log g above this are rejected as not giants; null = no cut (LogG is then ignored).</summary>
     public double? MaxLogG { get; init; }
 
-    /// <summary>
-    /// |df/d[Fe/H]| below this (mag per dex) counts as lost sensitivity: such colours are excluded from the
-    /// validity domain (a project choice, no published source).
-    /// </summary>
-    public double MinSensitivity { get; init; } = 0.01;
 
     /// <summary>Maximum threads for the bootstrap; null = all cores. Results do not depend on it.</summary>
     public int? MaxThreads { get; init; }
@@ -45,11 +53,12 @@ public sealed record CalibrationOptions
         static Errors.InputException Bad(string key, object v, string range) =>
             new($"calibration option '{key}' = {v} is outside the allowed range {range}.", column: key);
         if (Bootstrap < 0 || Bootstrap > 1_000_000) throw Bad("bootstrap", Bootstrap, "[0, 1000000]");
-        if (Degree is { } d && (d < 1 || d > 4)) throw Bad("degree", d, "[1, 4]");
-        if (MaxDegree < 1 || MaxDegree > 4) throw Bad("max_degree", MaxDegree, "[1, 4]");
-        if (!(ClipSigma >= 2.0)) throw Bad("clip_sigma", ClipSigma, "[2, infinity)");
+        int top = Monotone ? 3 : 4;
+        if (Degree is { } d && (d < 1 || d > top)) throw Bad("degree", d, $"[1, {top}]");
+        if (MaxDegree < 1 || MaxDegree > top) throw Bad("max_degree", MaxDegree, $"[1, {top}]");
+        if (Knots is { } k && (k < 0 || k > 4)) throw Bad("knots", k, "[0, 4]");
+        if (MaxKnots < 0 || MaxKnots > 4) throw Bad("max_knots", MaxKnots, "[0, 4]");
         if (Folds < 2 || Folds > 100) throw Bad("folds", Folds, "[2, 100]");
-        if (!(MinSensitivity >= 0)) throw Bad("min_sensitivity", MinSensitivity, "[0, infinity)");
         if (MaxThreads is { } t && t < 1) throw Bad("threads", t, "[1, cores]");
     }
 }

@@ -1,8 +1,8 @@
 namespace Photometallicity.Calibration;
 
 /// <summary>
-/// The calibration stage's outputs: the model, every standard's verdict (input order), the cross-validation
-/// scores by degree and the diagnostics of the fit.
+/// The calibration stage's outputs: the model, every standard's verdict (input order), the cross-validation scores of the
+/// model forms tried and the diagnostics of the fit.
 /// </summary>
 public sealed record CalibrationResult
 {
@@ -11,32 +11,24 @@ public sealed record CalibrationResult
     /// <summary>One verdict per input standard, in input order.</summary>
     public required StandardVerdict[] PerStandard { get; init; }
 
-    /// <summary>
-    /// Cross-validated mean squared index residual (mag^2) for degree d at index d - 1; NaN where the degree was
-    /// not eligible or not tried.
-    /// </summary>
-    public required double[] CvScoreByDegree { get; init; }
+    /// <summary>Every model form tried: its description, cross-validated mean log-likelihood per standard and its standard error (NaN where it could not be fitted), and why not.</summary>
+    public required IReadOnlyList<FormScore> CvScores { get; init; }
 
-    /// <summary>Standard error of each CV score (mag^2), same layout.</summary>
-    public required double[] CvScoreErrorByDegree { get; init; }
-
-    /// <summary>Why a degree was not eligible (degree -&gt; reason).</summary>
-    public required IReadOnlyDictionary<int, string> IneligibleDegrees { get; init; }
-
+    /// <summary>The chosen form's colour degree.</summary>
     public required int Degree { get; init; }
 
-    /// <summary>Why this degree: fixed by the user, or the CV rule that chose it.</summary>
+    /// <summary>Why this form: the cross-validation rule that chose it, or the user's fixed choice.</summary>
     public required string DegreeReason { get; init; }
 
     /// <summary>Cross-validated residual RMS of the accepted standards in the index (mag) and in [Fe/H] (dex).</summary>
     public double CvRmsIndex { get; init; }
     public double CvRmsDex { get; init; }
 
-    /// <summary>+1 when the index increases with [Fe/H] over the domain, -1 when it decreases.</summary>
-    public int FehSlopeSign { get; init; }
+    /// <summary>Fitted share of bad standards (the outlier component's weight).</summary>
+    public double OutlierFraction { get; init; }
 
-    /// <summary>Sentences on colour intervals excluded from the domain for lost or reversed sensitivity.</summary>
-    public required IReadOnlyList<string> MonotonicityNotes { get; init; }
+    /// <summary>Sentences on how the extrapolation error was measured.</summary>
+    public required IReadOnlyList<string> Notes { get; init; }
 
     /// <summary>Bootstrap replicates that had to be redrawn because their resample could not be fitted.</summary>
     public int BootstrapRedrawn { get; init; }
@@ -44,8 +36,11 @@ public sealed record CalibrationResult
     /// <summary>Bootstrap standard error of each coefficient (NaN without an ensemble).</summary>
     public required double[] BootstrapStandardErrors { get; init; }
 
-    /// <summary>Clipping passes of the best fit (more than EffectiveVarianceFit.MaxClipIterations: the kept set did not settle).</summary>
-    public int ClippingPasses { get; init; }
+    /// <summary>Expectation-maximisation passes of the best fit (more than 200: it did not settle).</summary>
+    public int FitPasses { get; init; }
 
     public IEnumerable<StandardVerdict> Rejected => PerStandard.Where(v => !v.Accepted);
 }
+
+/// <summary>One model form's cross-validation score.</summary>
+public sealed record FormScore(string Form, int Coefficients, double Score, double StandardError, string? Failure);

@@ -135,7 +135,13 @@ public static class FilterTransfer
         if (!(Math.Abs(t.A1) > 1e-6) || !(Math.Abs(t.B1) > 1e-6))
             throw new MethodException($"The filter transformation is degenerate (a1 = {t.A1}, b1 = {t.B1}); it cannot be inverted.");
         var ob = old.Basis;
-        var nb = new PolynomialBasis2D(ob.Degree, t.NewColour(ob.ColourCentre), ob.ColourScale / Math.Abs(t.A1), ob.FehCentre, ob.FehScale);
+        IIndexBasis nb = ob switch
+        {
+            PolynomialBasis2D pb => new PolynomialBasis2D(pb.Degree, t.NewColour(pb.ColourCentre), pb.ColourScale / Math.Abs(t.A1), pb.FehCentre, pb.FehScale),
+            MonotoneBasis mb => new MonotoneBasis(mb.ColourDegree, Math.Min(t.NewColour(mb.ColourLo), t.NewColour(mb.ColourHi)),
+                Math.Max(t.NewColour(mb.ColourLo), t.NewColour(mb.ColourHi)), mb.Ramps),
+            _ => throw new MethodException($"a calibration of the form \"{ob.Describe}\" cannot be transferred"),
+        };
         int p = nb.Count;
         var hull = ValidityDomain.ConvexHull(old.Domain.Hull.Select(v => (t.NewColour(v.Colour), v.Feh)));
         var excluded = old.Domain.ExcludedColours
@@ -206,9 +212,21 @@ public static class FilterTransfer
             EnsembleCoefficients = ens,
             EnsembleSigmaInt = ensSigma,
             Domain = new ValidityDomain(hull, excluded),
+            Extrapolation = old.Extrapolation is { } x ? MapExtrapolation(x, t) : null,
             Filters = newFilters,
             RmsIndex = old.RmsIndex / Math.Abs(t.B1),
             Provenance = prov,
         };
+    }
+
+    /// <summary>
+    /// The support box in the new colours; the colour error per new colour magnitude is kappa |a1| / |b1| (the old index error
+    /// per old colour magnitude, through dC_old/dC_new = a1 and the index scale 1/b1); with a1 &lt; 0 the blue and red sides swap.
+    /// </summary>
+    private static Extrapolation MapExtrapolation(Extrapolation x, FilterTransform t)
+    {
+        double lo = t.NewColour(x.ColourLo), hi = t.NewColour(x.ColourHi);
+        var z = t.A1 > 0 ? x.Z : x.Z.Select(v => new[] { v[1], v[0], v[2], v[3] }).ToArray();
+        return x with { ColourLo = Math.Min(lo, hi), ColourHi = Math.Max(lo, hi), KappaColour = x.KappaColour * Math.Abs(t.A1) / Math.Abs(t.B1), Z = z };
     }
 }

@@ -6,9 +6,21 @@ namespace Photometallicity.Calibration;
 /// (common practice). Term order: by total degree, then by descending power of u:
 /// 1, u, v, u^2, uv, v^2, u^3, u^2 v, ...
 /// </summary>
-public sealed record PolynomialBasis2D(int Degree, double ColourCentre, double ColourScale, double FehCentre, double FehScale)
+public sealed record PolynomialBasis2D(int Degree, double ColourCentre, double ColourScale, double FehCentre, double FehScale) : IIndexBasis
 {
     public int Count => (Degree + 1) * (Degree + 2) / 2;
+
+    public string Describe => $"2-D polynomial of degree {Degree}";
+    public int Complexity => Degree;
+    public bool[]? NonNegative => null;
+
+    public IndexSlice Slice(ReadOnlySpan<double> coefficients, double colour) => new PolynomialSlice(new Metallicity.ColourSlice(this, coefficients, colour));
+
+    private sealed class PolynomialSlice(Metallicity.ColourSlice s) : IndexSlice
+    {
+        public override (double Value, double DColour) At(double feh) => s.At(feh);
+        public override double SecondColourDerivative(double feh) => s.SecondColourDerivative(feh);
+    }
 
     /// <summary>Writes the basis terms at (colour, feh) into <paramref name="terms"/> (length <see cref="Count"/>).</summary>
     public void Terms(double colour, double feh, Span<double> terms)

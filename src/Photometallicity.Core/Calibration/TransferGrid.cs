@@ -3,22 +3,22 @@ namespace Photometallicity.Calibration;
 /// <summary>
 /// A dense (C_new, [Fe/H]) grid over the bounding box of the transformed domain with its normal matrix factored
 /// once, so that mapping many coefficient vectors through a filter transformation costs one back-substitution
-/// each. The grid covers the box (not only the hull) because the mapped function is a polynomial everywhere;
-/// the box keeps the least-squares problem well conditioned.
+/// each. The grid covers the box (not only the hull): the mapped function is of the basis's own form there (a polynomial, or
+/// a monotone model whose colour range maps linearly), and the box keeps the least-squares problem well conditioned.
 /// </summary>
 internal sealed class TransferGrid
 {
     private const int ColourSteps = 41, FehSteps = 31;
-    private readonly PolynomialBasis2D _basis;
+    private readonly IIndexBasis _basis;
     private readonly double[] _c, _f, _terms, _chol;
 
-    public TransferGrid(PolynomialBasis2D newBasis, ValidityDomain domain)
+    public TransferGrid(IIndexBasis newBasis, ValidityDomain domain)
     {
         _basis = newBasis;
         int p = newBasis.Count, g = ColourSteps * FehSteps;
         double c0 = domain.ColourMin, c1 = domain.ColourMax, f0 = domain.FehMin, f1 = domain.FehMax;
-        if (c1 - c0 < 1e-6) { c0 -= 0.5 * newBasis.ColourScale; c1 += 0.5 * newBasis.ColourScale; }
-        if (f1 - f0 < 1e-6) { f0 -= 0.5 * newBasis.FehScale; f1 += 0.5 * newBasis.FehScale; }
+        if (c1 - c0 < 1e-6) { c0 -= 0.25; c1 += 0.25; }
+        if (f1 - f0 < 1e-6) { f0 -= 0.5; f1 += 0.5; }
         _c = new double[g]; _f = new double[g]; _terms = new double[g * p]; _chol = new double[p * p];
         int k = 0;
         for (int a = 0; a < ColourSteps; a++)
@@ -35,7 +35,7 @@ internal sealed class TransferGrid
     }
 
     /// <summary>Least-squares coefficients on the new basis of (f_old(a0 + a1 C, F) - b0 - b2 C) / b1.</summary>
-    public double[] Refit(PolynomialBasis2D oldBasis, ReadOnlySpan<double> oldCoef, FilterTransform t)
+    public double[] Refit(IIndexBasis oldBasis, ReadOnlySpan<double> oldCoef, FilterTransform t)
     {
         int p = _basis.Count;
         var rhs = new double[p];

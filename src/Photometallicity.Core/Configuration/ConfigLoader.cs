@@ -238,18 +238,28 @@ public static partial class ConfigLoader
 
     private static CalibrationConfig Calibration(ConfigNode? n, ulong seed)
     {
-        if (n is null) return new CalibrationConfig(1000, seed, null, 3, 3.5);
+        if (n is null) return new CalibrationConfig(1000, seed, null, 2, null, 2);
         n.RequireObject();
         var c = new CalibrationConfig(
             n.Optional("bootstrap")?.AsInt(0, 100000) ?? 1000,       // resamples; default 1000
             n.Optional("seed")?.AsSeed() ?? seed,                     // default: the master seed
-            n.Optional("degree")?.AsInt(1, 5),                        // default: chosen by cross-validation
-            n.Optional("max_degree")?.AsInt(1, 5) ?? 3,
-            n.Optional("clip_sigma")?.AsNumber(2, 10) ?? 3.5)         // outlier threshold in sigma_eff; common practice
+            n.Optional("degree")?.AsInt(1, 4),                        // colour degree (polynomial: total degree); default: by cross-validation
+            n.Optional("max_degree")?.AsInt(1, 4) ?? 2,
+            n.Optional("knots")?.AsInt(0, 4),                         // interior [Fe/H] knots; default: chosen by cross-validation
+            n.Optional("max_knots")?.AsInt(0, 4) ?? 2)
         {
             GiantMaxLogG = n.Optional("giant_max_logg")?.AsNumber(0, 6) ?? 3.5, // giants/dwarfs boundary; common practice
+            Monotone = (n.Optional("model")?.AsString() ?? "monotone") switch
+            {
+                "monotone" => true,
+                "polynomial" => false,
+                var other => throw n.Error($"model must be \"monotone\" or \"polynomial\", not \"{other}\""),
+            },
+            Outliers = n.Optional("outliers")?.AsBool() ?? true,
         };
         n.RejectUnknown();
+        int maxDeg = c.Monotone ? 3 : 4;
+        if (c.Degree > maxDeg || c.MaxDegree > maxDeg) throw n.Error($"degree and max_degree go up to {maxDeg} for the {(c.Monotone ? "monotone" : "polynomial")} model");
         return c;
     }
 
@@ -262,7 +272,16 @@ public static partial class ConfigLoader
             n.Optional("grid_max")?.AsNumber(-2, 2) ?? 1.0,
             n.Optional("grid_step")?.AsNumber(0.001, 0.1) ?? 0.01,
             n.Optional("prior_mean")?.AsNumber(-6, 2),
-            n.Optional("prior_sigma")?.AsNumber(0.01, 10));
+            n.Optional("prior_sigma")?.AsNumber(0.01, 10))
+        {
+            StrictDomain = (n.Optional("domain")?.AsString() ?? "extrapolate") switch
+            {
+                "extrapolate" => false,
+                "hull" => true,
+                var other => throw n.Error($"domain must be \"extrapolate\" or \"hull\", not \"{other}\""),
+            },
+            ColourReach = n.Optional("colour_reach")?.AsNumber(0, 3) ?? Photometallicity.Metallicity.MetallicityOptions.DefaultColourReach,
+        };
         n.RejectUnknown();
         if (!(m.GridMin < m.GridMax)) throw n.Error($"grid_min ({m.GridMin}) must be below grid_max ({m.GridMax})");
         if ((m.PriorMean is null) != (m.PriorSigma is null)) throw n.Error("give both prior_mean and prior_sigma for a Gaussian prior, or neither for a flat prior");

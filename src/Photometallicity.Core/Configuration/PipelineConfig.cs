@@ -79,12 +79,23 @@ public sealed record ClusterStandardConfig(
     string Source);
 
 /// <summary>Calibration settings; <see cref="GiantMaxLogG"/> separates giants from dwarfs when the standards carry log g.</summary>
-public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, double ClipSigma)
+public sealed record CalibrationConfig(int Bootstrap, ulong Seed, int? Degree, int MaxDegree, int? Knots, int MaxKnots)
 {
     public double GiantMaxLogG { get; init; } = 3.5;
+
+    /// <summary>True: the monotone model (default); false: the full 2-D polynomial.</summary>
+    public bool Monotone { get; init; } = true;
+
+    /// <summary>Fit an outlier component for bad standards (default true).</summary>
+    public bool Outliers { get; init; } = true;
 }
 
-public sealed record MetallicityConfig(double GridMin, double GridMax, double GridStep, double? PriorMean, double? PriorSigma);
+/// <summary>Per-star [Fe/H] settings; <see cref="StrictDomain"/> restricts posteriors to the standards' convex hull, else the model extrapolates beyond them within <see cref="ColourReach"/> mag of their colours.</summary>
+public sealed record MetallicityConfig(double GridMin, double GridMax, double GridStep, double? PriorMean, double? PriorSigma)
+{
+    public bool StrictDomain { get; init; }
+    public double ColourReach { get; init; } = Metallicity.MetallicityOptions.DefaultColourReach;
+}
 
 public sealed record TargetConfig(SkyPosition Centre, double DistanceModulus, double? HalfLightArcmin, string Profile);
 

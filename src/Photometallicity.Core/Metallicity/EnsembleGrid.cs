@@ -64,7 +64,7 @@ internal sealed class EnsembleGrid
         foreach (var c in ens)
             if (c.Length != nb) throw new MethodException($"an ensemble member has {c.Length} coefficients, the basis {nb}");
 
-        var dom = model.Domain;
+        var dom = ApplicationDomain.For(model, options);
         int first = Math.Max(0, (int)Math.Ceiling((dom.FehMin - gridMin) / gridStep - 1e-9));
         int last = Math.Min(gridCount - 1, (int)Math.Floor((dom.FehMax - gridMin) / gridStep + 1e-9));
         if (last - first < 1)
@@ -74,6 +74,15 @@ internal sealed class EnsembleGrid
 
         double cmin = dom.ColourMin, cmax = dom.ColourMax;
         double h = ChooseColourStep(model, options.ColourInterpolationTolerance, cmin, cmax, gridMin + first * gridStep, gridMin + last * gridStep);
+        // The model-form draws bend each member's colour dependence at the edges of the standards' colours: nodes there keep
+        // the interpolation exact at the bend.
+        if (ApplicationDomain.Extrapolates(model, options))
+        {
+            var e = model.Extrapolation!;
+            if (e.ColourHi > e.ColourLo) h = (e.ColourHi - e.ColourLo) / Math.Ceiling((e.ColourHi - e.ColourLo) / h - 1e-9);
+            cmin = e.ColourLo - Math.Ceiling((e.ColourLo - cmin) / h - 1e-9) * h;
+            cmax = e.ColourLo + Math.Ceiling((cmax - e.ColourLo) / h - 1e-9) * h;
+        }
         int nc = Math.Max(2, (int)Math.Ceiling((cmax - cmin) / h - 1e-9) + 1);
         h = cmax > cmin ? (cmax - cmin) / (nc - 1) : 1.0;
         int m = ens.Length;
@@ -94,7 +103,7 @@ internal sealed class EnsembleGrid
         Parallel.For(0, nc, new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism }, k =>
         {
             double c = cmin + k * h;
-            var bs = new ColourSlice(model.Basis, model.Coefficients, c);
+            var bs = model.Basis.Slice(model.Coefficients, c);
             for (int j = 0; j < nf; j++)
                 (best[k * stride + j], bestSlope[k * stride + j]) = bs.At(gridMin + (first + j) * gridStep);
             var lo = envMin.AsSpan(k * stride, nf);
@@ -106,7 +115,7 @@ internal sealed class EnsembleGrid
             var sum2 = new double[nf];
             for (int mm = 0; mm < m; mm++)
             {
-                var s = new ColourSlice(model.Basis, ens[mm], c);
+                var s = model.MemberSlice(mm, c);
                 var full = levels[0];
                 long row = full.Row(k, mm);
                 for (int j = 0; j < nf; j++)
@@ -195,7 +204,7 @@ internal sealed class EnsembleGrid
             var coef = p < 0 ? model.Coefficients : model.EnsembleCoefficients[p * model.EnsembleCoefficients.Length / probes];
             for (int a = 0; a <= 100; a++)
             {
-                var s = new ColourSlice(model.Basis, coef, cmin + (cmax - cmin) * a / 100.0);
+                var s = model.Basis.Slice(coef, cmin + (cmax - cmin) * a / 100.0);
                 for (int b = 0; b <= 40; b++) curv = Math.Max(curv, Math.Abs(s.SecondColourDerivative(fmin + (fmax - fmin) * b / 40.0)));
             }
         }

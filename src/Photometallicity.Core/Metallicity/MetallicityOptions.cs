@@ -25,6 +25,20 @@ public sealed record MetallicityOptions
     /// <summary>Sigma of the optional Gaussian prior (dex); required with <see cref="PriorMean"/>.</summary>
     public double? PriorSigma { get; init; }
 
+    /// <summary>
+    /// True: posteriors are restricted to the convex hull of the accepted standards in (C0, [Fe/H]) (the strict domain).
+    /// False (default): the calibration extrapolates beyond the standards with its measured model-form error
+    /// (<see cref="Calibration.Extrapolation"/>), over the whole [Fe/H] grid and within <see cref="ColourReach"/> of their colours.
+    /// Calibrations without an extrapolation model (older files) always use the hull.
+    /// </summary>
+    public bool StrictDomain { get; init; }
+
+    /// <summary>How far beyond the standards' colours (mag) the calibration is extrapolated; beyond it a star has no value.</summary>
+    public double ColourReach { get; init; } = DefaultColourReach;
+
+    /// <summary>Default <see cref="ColourReach"/> (mag): about the colour change from the brightest giants two to three magnitudes down the branch (project choice).</summary>
+    public const double DefaultColourReach = 0.5;
+
     /// <summary>Half-width of the evaluation window in units of the largest sigma_eff (|X0 - f| &lt; W sigma).</summary>
     public double WindowSigmas { get; init; } = 6.0;
 

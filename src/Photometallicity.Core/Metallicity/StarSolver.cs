@@ -19,6 +19,7 @@ internal sealed class StarSolver
     private readonly LikelihoodKernel _kernel;
     private readonly MetallicityOptions _o;
     private readonly Calibration.ValidityDomain _domain;
+    private readonly Calibration.Extrapolation? _extrapolation;
     private readonly double _gridMin, _gridStep, _sint2Best, _truncZ;
     private readonly double[] _prior;
     private readonly double[] _post;
@@ -28,7 +29,8 @@ internal sealed class StarSolver
         _g = grid;
         _kernel = new LikelihoodKernel(grid, o.PointsPerSigma, o.GridStep, o.EnsembleSubsetTolerance, o.MinEnsembleSubset);
         _o = o;
-        _domain = model.Domain;
+        _domain = ApplicationDomain.For(model, o);
+        _extrapolation = ApplicationDomain.Extrapolates(model, o) ? model.Extrapolation : null;
         _gridMin = o.GridMin;
         _gridStep = o.GridStep;
         _sint2Best = model.SigmaInt * model.SigmaInt;
@@ -45,7 +47,7 @@ internal sealed class StarSolver
     {
         public int Star, Queue, J0, J1, A, B;
         public bool Rising;
-        public double ZAbove, ZBelow;
+        public double ZAbove, ZBelow, Colour;
     }
 
     /// <summary>Queued stars (at most <see cref="LikelihoodKernel.BatchCapacity"/>) waiting for <see cref="FinishBatch"/>.</summary>
@@ -79,6 +81,7 @@ internal sealed class StarSolver
         p.J0 = j0;
         p.J1 = j1;
         p.Rising = rising;
+        p.Colour = c0;
         p.ZAbove = rising ? (x0 - fHi) / sHi : (x0 - fLo) / sLo;
         p.ZBelow = rising ? (fLo - x0) / sLo : (fHi - x0) / sHi;
         int q = _kernel.Queued;
@@ -136,7 +139,9 @@ internal sealed class StarSolver
         double med = Percentile(a, b - a, 0.5);
         double p16 = Percentile(a, b - a, 0.16);
         double p84 = Percentile(a, b - a, 0.84);
-        var st = Math.Max(zAbove, zBelow) > _truncZ ? MetallicityStatus.PosteriorTruncated : MetallicityStatus.Ok;
+        var st = Math.Max(zAbove, zBelow) > _truncZ ? MetallicityStatus.PosteriorTruncated
+            : _extrapolation is { } e && (!e.InsideColour(p.Colour) || !e.InsideFeh(med)) ? MetallicityStatus.Extrapolated
+            : MetallicityStatus.Ok;
         if (store is not null) stored = Store(a, like, store);
         return new StarSummary(st, med, p16, p84, double.NaN, FehLimitSide.None);
     }

@@ -29,7 +29,7 @@ public static class DwarfBranch
         if (Fit(config, standards, photometry, log, progress) is not { } fitted) return null;
         var (fit, count) = fitted;
         var feh = precomputed ?? MetallicityAssigner.Run(photometry.Index, fit.Model, metallicityOptions, log);
-        log.LogInformation("dwarf calibration: {Used} standards used, degree {Degree}, rms {Rms:F3} dex", fit.Model.StandardsUsed, fit.Model.Basis.Degree, fit.Model.RmsDex);
+        log.LogInformation("dwarf calibration: {Used} standards used, {Model}, rms {Rms:F3} dex", fit.Model.StandardsUsed, fit.Model.Basis.Describe, fit.Model.RmsDex);
         return new DwarfProducts(fit, feh, count);
     }
 
@@ -56,7 +56,10 @@ public static class DwarfBranch
                 Seed = Numerics.Seeds.Derive(config.Calibration.Seed, "dwarf-branch"),
                 Degree = config.Calibration.Degree,
                 MaxDegree = config.Calibration.MaxDegree,
-                ClipSigma = config.Calibration.ClipSigma,
+                Knots = config.Calibration.Knots,
+                MaxKnots = config.Calibration.MaxKnots,
+                Monotone = config.Calibration.Monotone,
+                Outliers = config.Calibration.Outliers,
                 Filters = photometry.Filters,
             }, log, p);
         }

@@ -31,9 +31,11 @@ public static class MdfCalibrationError
             foreach (int i in pick)
             {
                 double c = colour0[i], f = feh.Feh[i];
-                double slope = basis.Gradient(ens[m], c, f).DFeh;
+                // The member with its draw of the model-form error beyond the standards (none inside them).
+                var sl = model.MemberSlice(m, c);
+                double slope = (sl.At(f + 0.01).Value - sl.At(f - 0.01).Value) / 0.02;
                 if (!(Math.Abs(slope) > 1e-6)) continue;
-                double df = (basis.Value(model.Coefficients, c, f) - basis.Value(ens[m], c, f)) / slope;
+                double df = (basis.Value(model.Coefficients, c, f) - sl.At(f).Value) / slope;
                 s += pMember[i] * df;
                 sw += pMember[i];
             }

@@ -57,7 +57,7 @@ public static class PipelineRunner
         {
             cm = CalibrationJson.Read(calPath);
             CalibrationCompatibility.Require(cm, photometry.Filters, calPath);
-            log.LogInformation("calibration read from {Path}: degree {Degree}, {Members} ensemble members, rms {Rms:F3} dex", calPath, cm.Basis.Degree,
+            log.LogInformation("calibration read from {Path}: {Model}, {Members} ensemble members, rms {Rms:F3} dex", calPath, cm.Basis.Describe,
                 cm.EnsembleCoefficients.Length, cm.RmsDex);
         }
         else
@@ -77,7 +77,10 @@ public static class PipelineRunner
                     Seed = config.Calibration.Seed,
                     Degree = config.Calibration.Degree,
                     MaxDegree = config.Calibration.MaxDegree,
-                    ClipSigma = config.Calibration.ClipSigma,
+                    Knots = config.Calibration.Knots,
+                MaxKnots = config.Calibration.MaxKnots,
+                Monotone = config.Calibration.Monotone,
+                Outliers = config.Calibration.Outliers,
                     Filters = photometry.Filters,
                     MaxLogG = standards.Standards.LogG is null ? null : config.Calibration.GiantMaxLogG,
                 }, log, p);
@@ -173,6 +176,8 @@ public static class PipelineRunner
         GridStep = config.Metallicity.GridStep,
         PriorMean = config.Metallicity.PriorMean,
         PriorSigma = config.Metallicity.PriorSigma,
+        StrictDomain = config.Metallicity.StrictDomain,
+        ColourReach = config.Metallicity.ColourReach,
     };
 
     private static NarrowCompleteness CompletenessWarnings(PhotometryProducts phot, CrossMatchResult match, double[] pMember, MetallicityResult feh, List<string> warnings)

@@ -22,6 +22,7 @@ public static class ResidualsTable
         var resDex = Nan(n);
         var resSig = Nan(n);
         var cvDex = Nan(n);
+        var pOut = Nan(n);
         for (int i = 0; i < st.Count; i++)
         {
             var v = verdicts[i];
@@ -36,6 +37,7 @@ public static class ResidualsTable
             resDex[i] = v.ResidualDex;
             resSig[i] = v.ResidualSigma;
             cvDex[i] = v.CvResidualDex;
+            pOut[i] = v.POutlier;
         }
         for (int k = 0; k < standards.Excluded.Count; k++)
         {
@@ -57,6 +59,7 @@ public static class ResidualsTable
         t.Add(new Column<double>("residual_sigma", resSig, description: "residual in units of the effective sigma"));
         t.Add(new Column<double>("residual_dex", resDex, unit: "dex", description: "residual expressed in [Fe/H]"));
         t.Add(new Column<double>("cv_residual_dex", cvDex, unit: "dex", description: "cross-validated residual in [Fe/H]"));
+        t.Add(new Column<double>("p_outlier", pOut, description: "probability that the standard belongs to the outlier component of the fit"));
         return t;
     }
 

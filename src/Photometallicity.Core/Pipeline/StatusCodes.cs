@@ -34,6 +34,7 @@ public static class StatusCodes
             MetallicityStatus.IndexBelowRange => "index_below_range",
             MetallicityStatus.ColourOutsideCalibration => "colour_outside_calibration",
             MetallicityStatus.NonMonotonic => "non_monotonic",
+            MetallicityStatus.Extrapolated => "extrapolated",
             _ => "bad_photometry",
         };
     }

@@ -37,7 +37,7 @@ public static class SummaryBuilder
             {
                 ["standards"] = dw.Standards,
                 ["standards_used"] = dw.Calibration.Model.StandardsUsed,
-                ["degree"] = dw.Calibration.Model.Basis.Degree,
+                ["model"] = dw.Calibration.Model.Basis.Describe,
                 ["rms_dex"] = N(dw.Calibration.Model.RmsDex),
                 ["sigma_int_mag"] = N(dw.Calibration.Model.SigmaInt),
             };
@@ -123,8 +123,17 @@ public static class SummaryBuilder
             ["rms_index_mag"] = N(model.RmsIndex),
             ["cv_rms_dex"] = cal is null ? null : N(cal.CvRmsDex),
             ["sigma_int_mag"] = N(model.SigmaInt),
-            ["degree"] = model.Basis.Degree,
-            ["degree_reason"] = cal?.DegreeReason,
+            ["model"] = model.Basis.Describe,
+            ["model_reason"] = cal?.DegreeReason,
+            ["outlier_fraction"] = N(model.OutlierFraction),
+            ["extrapolation"] = model.Extrapolation is { } x ? new JsonObject
+            {
+                ["support_colour"] = new JsonArray(N(x.ColourLo), N(x.ColourHi)),
+                ["support_feh"] = new JsonArray(N(x.FehLo), N(x.FehHi)),
+                ["kappa_colour_mag_per_mag"] = N(x.KappaColour),
+                ["kappa_feh_ln_sensitivity"] = N(x.KappaFeh),
+                ["domain"] = r.Config.Metallicity.StrictDomain ? "hull" : "extrapolate",
+            } : null,
             ["standards_total"] = r.Standards?.Total,
             ["standards_used"] = model.StandardsUsed,
             ["standards_rejected"] = model.StandardsRejected,

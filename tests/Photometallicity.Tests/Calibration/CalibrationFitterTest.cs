@@ -13,7 +13,7 @@ public class CalibrationFitterTest
         var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 200 }, 1);
         var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 200));
         var m = r.Model;
-        Assert.True(r.Degree == 2, $"degree {r.Degree}: CV {string.Join(", ", r.CvScoreByDegree)} +- {string.Join(", ", r.CvScoreErrorByDegree)}");
+        Assert.True(r.Degree == 2, $"colour degree {r.Degree}: CV {string.Join(", ", r.CvScores.Select(c => $"{c.Form}: {c.Score:F3} +- {c.StandardError:F3}"))}");
         foreach (var (c, f) in new[] { (1.0, -2.0), (1.2, -1.5), (1.4, -1.0), (1.2, -2.0) })
         {
             double truth = SyntheticStandards.Truth(c, f);
@@ -25,8 +25,8 @@ public class CalibrationFitterTest
         Assert.InRange(m.SigmaInt, 0.012, 0.028); // truth 0.02 mag
         Assert.Equal(200, m.EnsembleSigmaInt.Length);
         Assert.Equal(200, r.PerStandard.Length);
-        Assert.Equal(+1, r.FehSlopeSign);
         Assert.Empty(m.Domain.ExcludedColours);
+        Assert.IsType<MonotoneBasis>(m.Basis);
         // RMS in dex about the spectroscopic values: dominated by the 0.1 dex [Fe/H] errors plus index scatter.
         Assert.InRange(m.RmsDex, 0.08, 0.3);
     }
@@ -37,8 +37,9 @@ public class CalibrationFitterTest
         var spec = new SyntheticStandards.Spec { Stars = 150, Model = (c, f) => 0.3 + 0.6 * c + 0.25 * f };
         var r = CalibrationFitter.Run(SyntheticStandards.Make(spec, 3), SyntheticStandards.Options(bootstrap: 0));
         Assert.Equal(1, r.Degree);
-        Assert.All(r.CvScoreByDegree.Take(3), s => Assert.True(double.IsFinite(s)));
-        Assert.Contains("degree 1", r.DegreeReason);
+        Assert.Equal(6, r.CvScores.Count); // colour degrees 1-2 x 0-2 interior knots
+        Assert.All(r.CvScores, s => Assert.True(double.IsFinite(s.Score), s.Failure));
+        Assert.Contains("colour degree 1", r.DegreeReason);
     }
 
     [Fact]
@@ -52,8 +53,9 @@ public class CalibrationFitterTest
         {
             var v = r.PerStandard[i];
             Assert.Equal(StandardStatus.RejectedOutlier, v.Status);
-            Assert.Contains("sigma_eff", v.Reason);
+            Assert.Contains("p_outlier", v.Reason);
             Assert.True(Math.Abs(v.ResidualSigma) > 3.5);
+            Assert.True(v.POutlier > 0.99, $"p_outlier {v.POutlier}");
         }
         Assert.True(r.PerStandard.Count(v => !v.Accepted) <= bad.Length + 2);
         Assert.InRange(r.Model.SigmaInt, 0.01, 0.03); // outliers do not inflate the intrinsic scatter
@@ -96,12 +98,12 @@ public class CalibrationFitterTest
         var e = Assert.Throws<MethodException>(() =>
             CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 4 }, 9), SyntheticStandards.Options(0)));
         Assert.Contains("4 usable calibration standards", e.Message);
-        Assert.Contains("at least 5", e.Message);
-        // Enough for degree 1 but not for a fixed degree 3 (10 coefficients).
+        Assert.Contains("at least 8", e.Message);
+        // Enough for the simplest form but not for colour degree 3 with two knots (12 coefficients).
         var e3 = Assert.Throws<MethodException>(() =>
-            CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 9 }, 9), SyntheticStandards.Options(0, degree: 3)));
-        Assert.Contains("10 coefficients", e3.Message);
-        Assert.Contains("at least 12 needed", e3.Message);
+            CalibrationFitter.Run(SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 9 }, 9), SyntheticStandards.Options(0, degree: 3) with { Knots = 2 }));
+        Assert.Contains("12 coefficients", e3.Message);
+        Assert.Contains("at least 14 needed", e3.Message);
     }
 
     [Fact]
@@ -165,12 +167,12 @@ public class CalibrationFitterTest
     [Fact]
     public void Run_FixedDegreeWithTooFewStandardsPerFold_StillFitsAndSaysWhy()
     {
-        // 13 standards, degree 3 (10 coefficients): enough to fit, too few for 5-fold cross-validation.
-        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 13, SigmaInt = 0.005 }, 16);
-        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0, degree: 3) with { ClipSigma = 100 });
-        Assert.Equal(3, r.Degree);
-        Assert.Contains("fold", r.IneligibleDegrees[3]);
-        Assert.Equal(13, r.Model.StandardsUsed);
+        // 9 standards, colour degree 2 with no knot (7 coefficients): enough to fit, too few for 5-fold cross-validation.
+        var st = SyntheticStandards.Make(new SyntheticStandards.Spec { Stars = 9, SigmaInt = 0.005 }, 16);
+        var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0, degree: 2) with { Knots = 0, Outliers = false });
+        Assert.Equal(2, r.Degree);
+        Assert.Contains("not cross-validated", r.DegreeReason);
+        Assert.Equal(9, r.Model.StandardsUsed);
     }
 
     internal static byte[] Serialize(CalibrationResult r)

@@ -28,6 +28,9 @@ public class CalibrationJsonTest
         Assert.Equal(o.EnsembleSigmaInt, m.EnsembleSigmaInt);
         Assert.Equal(o.Domain.Hull, m.Domain.Hull);
         Assert.Equal(o.Domain.ExcludedColours, m.Domain.ExcludedColours);
+        Assert.Equal(o.Extrapolation!.KappaColour, m.Extrapolation!.KappaColour);
+        Assert.Equal(o.Extrapolation.Z.Length, m.Extrapolation.Z.Length);
+        Assert.Equal(o.OutlierFraction, m.OutlierFraction);
         Assert.Equal(o.Filters, m.Filters);
         Assert.Equal(o.RmsDex, m.RmsDex);
         Assert.Equal(o.StandardsUsed, m.StandardsUsed);
@@ -37,14 +40,14 @@ public class CalibrationJsonTest
         CalibrationJson.Write(o, null, a);
         CalibrationJson.Write(m, null, b);
         Assert.Equal(File.ReadAllBytes(a), File.ReadAllBytes(b));
-        Assert.Contains("\"format_version\": 1", File.ReadAllText(path));
+        Assert.Contains("\"format_version\": 2", File.ReadAllText(path));
         Assert.Contains("\"standards\"", File.ReadAllText(path));
     }
 
     [Theory]
     [InlineData("\"sigma_int_mag\":", "\"sigma_int_magX\":", "model.sigma_int_mag")]
-    [InlineData("\"format_version\": 1", "\"format_version\": 9", "format_version")]
-    [InlineData("\"degree\":", "\"degree\": \"two\", \"x\":", "model.degree")]
+    [InlineData("\"format_version\": 2", "\"format_version\": 9", "format_version")]
+    [InlineData("\"colour_degree\":", "\"colour_degree\": \"two\", \"x\":", "model.colour_degree")]
     public void Read_Malformed_NamesFileAndKey(string find, string replace, string key)
     {
         var r = Fit();

@@ -1,0 +1,95 @@
+namespace Photometallicity.Calibration;
+
+/// <summary>
+/// Measures how fast the calibration's error grows beyond the standards (<see cref="Extrapolation"/>), from the standards
+/// themselves: the bluest <see cref="HoldOutShare"/> of the accepted standards are held out, the chosen model form is refitted to
+/// the rest (on a basis placed on the rest), and the held-out standards' residuals across the gap are fitted by
+///   r_i ~ N(0, V_i + t_i^T Cov t_i + (kappa d_i)^2)
+/// (V_i the effective variance, t_i^T Cov t_i the fit's own prediction variance from its inverse Fisher matrix, d_i the colour
+/// distance from the training standards), by maximum likelihood in kappa (Brent in ln kappa, or kappa = 0 when that is better);
+/// likewise the reddest share; the two sides give one KappaColour (joint likelihood). For [Fe/H], the most metal-poor and most
+/// metal-rich shares are held out and the extra variance is (kappa_F |df/dF|_edge d_F)^2 with d_F the [Fe/H] distance beyond the
+/// training standards and the slope taken at the training edge. Standards the fit calls outliers (p_outlier &gt; 0.5) are not
+/// used. Held-out-region cross-validation: a way to measure how prediction error grows with distance from the data (a common
+/// practice; the growth linear in the distance is a project choice, the first term of any smooth model error).
+/// </summary>
+internal static class ExtrapolationCalibrator
+{
+    /// <summary>Share of the accepted standards held out on each side (project choice), at least <see cref="MinHeldOut"/>.</summary>
+    public const double HoldOutShare = 0.2;
+    public const int MinHeldOut = 6;
+
+    /// <summary>Upper bound of the kappas searched: 10 mag of index per mag of colour, e^10 in sensitivity (no real limit).</summary>
+    private const double KappaMax = 10;
+
+    internal sealed record Outcome(double KappaColour, double KappaFeh, int HeldOutColour, int HeldOutFeh, string Note);
+
+    public static Outcome Run(FitData d, int[] accepted, ModelSpec spec, bool outliers)
+    {
+        var colourGaps = new List<(double R, double V, double D)>();
+        var fehGaps = new List<(double R, double V, double D)>();
+        int nHold = Math.Max(MinHeldOut, (int)Math.Round(HoldOutShare * accepted.Length));
+        string note = "";
+        if (accepted.Length - nHold < spec.Count + 2)
+            return new Outcome(0, 0, 0, 0, $"too few accepted standards ({accepted.Length}) to hold out {nHold} on a side; the model-form error beyond the standards is not measured and is taken as zero");
+        var byColour = accepted.OrderBy(i => d.C[i]).ThenBy(i => i).ToArray();
+        var byFeh = accepted.OrderBy(i => d.F[i]).ThenBy(i => i).ToArray();
+        Side(d, byColour.Take(nHold).ToArray(), byColour.Skip(nHold).ToArray(), spec, outliers, colourGaps, colour: true);
+        Side(d, byColour.Skip(accepted.Length - nHold).ToArray(), byColour.Take(accepted.Length - nHold).ToArray(), spec, outliers, colourGaps, colour: true);
+        Side(d, byFeh.Take(nHold).ToArray(), byFeh.Skip(nHold).ToArray(), spec, outliers, fehGaps, colour: false);
+        Side(d, byFeh.Skip(accepted.Length - nHold).ToArray(), byFeh.Take(accepted.Length - nHold).ToArray(), spec, outliers, fehGaps, colour: false);
+        double kc = Kappa(colourGaps), kf = Kappa(fehGaps);
+        return new Outcome(kc, kf, colourGaps.Count, fehGaps.Count, note);
+    }
+
+    private static void Side(FitData d, int[] held, int[] train, ModelSpec spec, bool outliers, List<(double R, double V, double D)> gaps, bool colour)
+    {
+        var tc = train.Select(i => d.C[i]).ToArray();
+        var tf = train.Select(i => d.F[i]).ToArray();
+        var basis = spec.Build(tc, tf);
+        if (basis is null) return;
+        var fit = new MixtureFit(d, basis, outliers);
+        var w = new double[d.N];
+        foreach (int i in train) w[i] = 1;
+        if (fit.Fit(w) is not null) return;
+        int p = basis.Count;
+        var cov = new double[p * p];
+        if (!fit.Covariance(cov)) return;
+        var coef = fit.Coefficients.ToArray();
+        Span<double> t = stackalloc double[p];
+        double cLo = tc.Min(), cHi = tc.Max(), fLo = tf.Min(), fHi = tf.Max();
+        foreach (int i in held)
+        {
+            fit.HeldOutLogLikelihood(i, out double r, out double v);
+            basis.Terms(d.C[i], d.F[i], t);
+            double vp = 0;
+            for (int a = 0; a < p; a++)
+                for (int b = 0; b < p; b++) vp += t[a] * cov[a * p + b] * t[b];
+            double dist;
+            if (colour) dist = d.C[i] < cLo ? cLo - d.C[i] : d.C[i] > cHi ? d.C[i] - cHi : 0;
+            else
+            {
+                double edge = d.F[i] < fLo ? fLo : fHi;
+                double df = d.F[i] < fLo ? fLo - d.F[i] : d.F[i] > fHi ? d.F[i] - fHi : 0;
+                double slope = Math.Abs(basis.Gradient(coef, d.C[i], edge).DFeh);
+                dist = slope * df;
+            }
+            if (dist > 0) gaps.Add((r, v + vp, dist));
+        }
+    }
+
+    /// <summary>Maximum-likelihood kappa for r ~ N(0, V + (kappa D)^2); 0 when the gaps show no extra error.</summary>
+    private static double Kappa(List<(double R, double V, double D)> gaps)
+    {
+        if (gaps.Count < 3) return 0;
+        double Nll(double k)
+        {
+            double s = 0;
+            foreach (var (r, v, dd) in gaps) { double tot = v + k * k * dd * dd; s += r * r / tot + Math.Log(tot); }
+            return s;
+        }
+        double lnK = BrentMinimizer.Minimize(static (f, x) => f(Math.Exp(x)), (Func<double, double>)Nll, Math.Log(1e-4), Math.Log(KappaMax), 1e-4);
+        double k = Math.Exp(lnK);
+        return Nll(k) < Nll(0) ? k : 0;
+    }
+}

@@ -1,0 +1,163 @@
+using System.Globalization;
+
+namespace Photometallicity.Calibration;
+
+/// <summary>
+/// A forward model monotonic in [Fe/H] by construction:
+///   f(C, F) = p(C) + sum_j s_j(C) I_j(F),   s_j(C) = max(0, alpha_j (1 - t) + beta_j t),   t = (C - ColourLo) / (ColourHi - ColourLo),
+/// with p a polynomial of degree <see cref="ColourDegree"/> in u = 2t - 1, I_j the quadratic I-splines of
+/// <see cref="MonotoneRamps"/> (Ramsay 1988, Statistical Science 3, 425), and alpha_j, beta_j &gt;= 0 (the fit's constraints).
+/// At fixed colour the index then never falls as [Fe/H] rises: the Ca II H and K absorption grows with metal abundance at a
+/// given temperature, which is common practice to assume for this index (e.g. the calibrations of the Ca II K line strength
+/// in Beers et al. 1999, AJ 117, 981, recalled from memory, rise with [Fe/H] at every colour). The sensitivity varies linearly
+/// with colour between the standards' bluest and reddest colours; the saturation at low [Fe/H] and any curvature come from
+/// the ramps.
+/// Outside the standards' colours p continues along its tangent (a project choice: no polynomial growth beyond the data), the
+/// sensitivities along their straight lines, never below zero. Outside the ramps' [Fe/H] range the ramps continue along
+/// their tangents. The linear <see cref="Terms"/> are exact wherever no sensitivity is clamped at zero, which includes every
+/// colour between ColourLo and ColourHi, where the standards are.
+/// Term order: p_0 .. p_d (powers of u), alpha_1 .. alpha_J, beta_1 .. beta_J.
+/// </summary>
+public sealed class MonotoneBasis : IIndexBasis, IEquatable<MonotoneBasis>
+{
+    /// <summary>Two bases are equal when they have the same degree, colour range and ramps (structural equality).</summary>
+    public bool Equals(MonotoneBasis? other) => other is not null && ColourDegree == other.ColourDegree && ColourLo == other.ColourLo &&
+        ColourHi == other.ColourHi && Ramps.Lo == other.Ramps.Lo && Ramps.Hi == other.Ramps.Hi && Ramps.Knots.SequenceEqual(other.Ramps.Knots);
+
+    public override bool Equals(object? obj) => Equals(obj as MonotoneBasis);
+
+    public override int GetHashCode() => HashCode.Combine(ColourDegree, ColourLo, ColourHi, Ramps.Lo, Ramps.Hi, Ramps.Knots.Length);
+
+    public MonotoneBasis(int colourDegree, double colourLo, double colourHi, MonotoneRamps ramps)
+    {
+        if (colourDegree < 1 || colourDegree > 3) throw new ArgumentOutOfRangeException(nameof(colourDegree), colourDegree, "the colour degree must be 1, 2 or 3");
+        if (!(colourHi > colourLo)) throw new ArgumentException($"the colour range [{colourLo}, {colourHi}] is empty");
+        ColourDegree = colourDegree;
+        ColourLo = colourLo;
+        ColourHi = colourHi;
+        Ramps = ramps;
+        Count = colourDegree + 1 + 2 * ramps.Count;
+        NonNegative = new bool[Count];
+        for (int k = colourDegree + 1; k < Count; k++) NonNegative[k] = true;
+    }
+
+    public int ColourDegree { get; }
+    public double ColourLo { get; }
+    public double ColourHi { get; }
+    public MonotoneRamps Ramps { get; }
+    public int Count { get; }
+    public bool[]? NonNegative { get; }
+    public int Complexity => Count;
+
+    public string Describe => string.Create(CultureInfo.InvariantCulture,
+        $"monotone in [Fe/H]: colour degree {ColourDegree}, {Ramps.Knots.Length} interior [Fe/H] knot{(Ramps.Knots.Length == 1 ? "" : "s")}, {Count} coefficients");
+
+    private double Width => ColourHi - ColourLo;
+
+    /// <summary>u = 2t - 1 and the colour powers (with tangent continuation outside [-1, 1]) and their first and second u-derivatives.</summary>
+    private void ColourTerms(double colour, Span<double> pw, Span<double> dpw, Span<double> d2pw, out double t)
+    {
+        t = (colour - ColourLo) / Width;
+        double u = 2 * t - 1;
+        double uc = Math.Clamp(u, -1, 1);
+        for (int a = 0; a <= ColourDegree; a++)
+        {
+            double v = Math.Pow(uc, a), dv = a == 0 ? 0 : a * Math.Pow(uc, a - 1), d2 = a < 2 ? 0 : a * (a - 1) * Math.Pow(uc, a - 2);
+            if (u != uc) { pw[a] = v + dv * (u - uc); dpw[a] = dv; d2pw[a] = 0; }
+            else { pw[a] = v; dpw[a] = dv; d2pw[a] = d2; }
+        }
+    }
+
+    public void Terms(double colour, double feh, Span<double> terms)
+    {
+        int d = ColourDegree, n = Ramps.Count;
+        Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
+        Span<double> iv = stackalloc double[n], islope = stackalloc double[n];
+        ColourTerms(colour, pw, dp, d2, out double t);
+        Ramps.Evaluate(feh, iv, islope);
+        for (int a = 0; a <= d; a++) terms[a] = pw[a];
+        for (int j = 0; j < n; j++) { terms[d + 1 + j] = (1 - t) * iv[j]; terms[d + 1 + n + j] = t * iv[j]; }
+    }
+
+    public void TermDerivatives(double colour, double feh, Span<double> dColour, Span<double> dFeh)
+    {
+        int d = ColourDegree, n = Ramps.Count;
+        Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
+        Span<double> iv = stackalloc double[n], islope = stackalloc double[n];
+        ColourTerms(colour, pw, dp, d2, out double t);
+        Ramps.Evaluate(feh, iv, islope);
+        double dudc = 2 / Width, dtdc = 1 / Width;
+        for (int a = 0; a <= d; a++) { dColour[a] = dp[a] * dudc; dFeh[a] = 0; }
+        for (int j = 0; j < n; j++)
+        {
+            dColour[d + 1 + j] = -dtdc * iv[j]; dFeh[d + 1 + j] = (1 - t) * islope[j];
+            dColour[d + 1 + n + j] = dtdc * iv[j]; dFeh[d + 1 + n + j] = t * islope[j];
+        }
+    }
+
+    public double Value(ReadOnlySpan<double> coefficients, double colour, double feh) => Slice(coefficients, colour).At(feh).Value;
+
+    public (double DColour, double DFeh) Gradient(ReadOnlySpan<double> coefficients, double colour, double feh)
+    {
+        var s = (MonotoneSlice)Slice(coefficients, colour);
+        return (s.At(feh).DColour, s.FehSlope(feh));
+    }
+
+    public IndexSlice Slice(ReadOnlySpan<double> coefficients, double colour) => new MonotoneSlice(this, coefficients, colour);
+
+    public string[] TermNames()
+    {
+        var names = new List<string>();
+        for (int a = 0; a <= ColourDegree; a++) names.Add(a == 0 ? "1" : a == 1 ? "u" : $"u^{a}");
+        for (int j = 1; j <= Ramps.Count; j++) names.Add($"(1-t) I{j}");
+        for (int j = 1; j <= Ramps.Count; j++) names.Add($"t I{j}");
+        return names.ToArray();
+    }
+
+    private sealed class MonotoneSlice : IndexSlice
+    {
+        private readonly MonotoneBasis _b;
+        private readonly double _p, _dp, _d2p;
+        private readonly double[] _s, _ds;
+
+        public MonotoneSlice(MonotoneBasis b, ReadOnlySpan<double> c, double colour)
+        {
+            _b = b;
+            int d = b.ColourDegree, n = b.Ramps.Count;
+            Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
+            b.ColourTerms(colour, pw, dp, d2, out double t);
+            double dudc = 2 / b.Width, dtdc = 1 / b.Width;
+            for (int a = 0; a <= d; a++) { _p += c[a] * pw[a]; _dp += c[a] * dp[a] * dudc; _d2p += c[a] * d2[a] * dudc * dudc; }
+            _s = new double[n];
+            _ds = new double[n];
+            for (int j = 0; j < n; j++)
+            {
+                double alpha = c[d + 1 + j], beta = c[d + 1 + n + j];
+                double s = alpha * (1 - t) + beta * t;
+                if (s > 0) { _s[j] = s; _ds[j] = (beta - alpha) * dtdc; }
+            }
+        }
+
+        public override (double Value, double DColour) At(double feh)
+        {
+            int n = _s.Length;
+            Span<double> iv = stackalloc double[n], sl = stackalloc double[n];
+            _b.Ramps.Evaluate(feh, iv, sl);
+            double f = _p, g = _dp;
+            for (int j = 0; j < n; j++) { f += _s[j] * iv[j]; g += _ds[j] * iv[j]; }
+            return (f, g);
+        }
+
+        public double FehSlope(double feh)
+        {
+            int n = _s.Length;
+            Span<double> iv = stackalloc double[n], sl = stackalloc double[n];
+            _b.Ramps.Evaluate(feh, iv, sl);
+            double g = 0;
+            for (int j = 0; j < n; j++) g += _s[j] * sl[j];
+            return g;
+        }
+
+        public override double SecondColourDerivative(double feh) => _d2p;
+    }
+}

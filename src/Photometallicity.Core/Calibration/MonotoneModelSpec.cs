@@ -1,0 +1,69 @@
+using System.Globalization;
+
+namespace Photometallicity.Calibration;
+
+/// <summary>
+/// One candidate form of the monotone forward model: the colour polynomial's degree and the number of interior [Fe/H] knots.
+/// <see cref="Build"/> places the basis on a set of standards: colour range = their colour span, ramp range = their [Fe/H]
+/// span, interior knots at equally spaced quantiles of their [Fe/H] (common practice for regression splines; e.g. Hastie,
+/// Tibshirani &amp; Friedman 2009, The Elements of Statistical Learning, 2nd ed., section 5.2), at least
+/// <see cref="MinKnotGap"/> dex from each other and from the ends (a project choice, so that every ramp spans some standards).
+/// </summary>
+public sealed record MonotoneModelSpec(int ColourDegree, int InteriorKnots) : ModelSpec
+{
+    public const double MinKnotGap = 0.15;
+
+    public override int Count => ColourDegree + 1 + 2 * (InteriorKnots + 2);
+
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture, $"colour degree {ColourDegree}, {InteriorKnots} knot{(InteriorKnots == 1 ? "" : "s")}");
+
+    /// <summary>The basis on the given standards, or null when they cannot carry this many knots.</summary>
+    public override IIndexBasis? Build(IReadOnlyList<double> colour, IReadOnlyList<double> feh)
+    {
+        double cLo = colour.Min(), cHi = colour.Max(), fLo = feh.Min(), fHi = feh.Max();
+        if (!(cHi > cLo) || !(fHi > fLo)) return null;
+        var sorted = feh.OrderBy(v => v).ToArray();
+        var knots = new List<double>();
+        for (int k = 1; k <= InteriorKnots; k++)
+        {
+            double q = Quantile(sorted, (double)k / (InteriorKnots + 1));
+            double prev = knots.Count > 0 ? knots[^1] : fLo;
+            if (q - prev < MinKnotGap || fHi - q < MinKnotGap) return null;
+            knots.Add(q);
+        }
+        return new MonotoneBasis(ColourDegree, cLo, cHi, new MonotoneRamps(fLo, fHi, knots));
+    }
+
+    private static double Quantile(double[] sorted, double q)
+    {
+        double x = q * (sorted.Length - 1);
+        int i = (int)Math.Floor(x);
+        return i + 1 < sorted.Length ? sorted[i] + (x - i) * (sorted[i + 1] - sorted[i]) : sorted[i];
+    }
+}
+
+/// <summary>A candidate form of the forward model; <see cref="Build"/> places its basis on a set of standards.</summary>
+public abstract record ModelSpec
+{
+    public abstract int Count { get; }
+
+    public abstract IIndexBasis? Build(IReadOnlyList<double> colour, IReadOnlyList<double> feh);
+}
+
+/// <summary>
+/// The full 2-D polynomial of total degree <see cref="Degree"/> (the first form of this program; no monotonicity built in),
+/// centred on the standards' mid-range and scaled by their half-range (common practice).
+/// </summary>
+public sealed record PolynomialModelSpec(int Degree) : ModelSpec
+{
+    public override int Count => PolynomialBasis2D.CountFor(Degree);
+
+    public override string ToString() => $"polynomial of degree {Degree}";
+
+    public override IIndexBasis? Build(IReadOnlyList<double> colour, IReadOnlyList<double> feh)
+    {
+        double cmin = colour.Min(), cmax = colour.Max(), fmin = feh.Min(), fmax = feh.Max();
+        if (!(cmax > cmin) || !(fmax > fmin)) return null;
+        return new PolynomialBasis2D(Degree, 0.5 * (cmin + cmax), 0.5 * (cmax - cmin), 0.5 * (fmin + fmax), 0.5 * (fmax - fmin));
+    }
+}
