@@ -22,7 +22,11 @@ internal static class ExtrapolationCalibrator
     /// <summary>Upper bound of the kappas searched: 10 mag of index per mag of colour, e^10 in sensitivity (no real limit).</summary>
     private const double KappaMax = 10;
 
-    internal sealed record Outcome(double KappaColour, double KappaFeh, int HeldOutColour, int HeldOutFeh, string Note);
+    internal sealed record Outcome(double KappaColour, double KappaFeh, int HeldOutColour, int HeldOutFeh, string Note)
+    {
+        /// <summary>Sum of ln N(r; 0, V + t'Ct + (kappa D)^2) over the held-out standards across the gaps, at the fitted kappas.</summary>
+        public double GapLogLikelihood { get; init; }
+    }
 
     public static Outcome Run(FitData d, int[] accepted, ModelSpec spec, bool outliers)
     {
@@ -39,7 +43,7 @@ internal static class ExtrapolationCalibrator
         Side(d, byFeh.Take(nHold).ToArray(), byFeh.Skip(nHold).ToArray(), spec, outliers, fehGaps, colour: false);
         Side(d, byFeh.Skip(accepted.Length - nHold).ToArray(), byFeh.Take(accepted.Length - nHold).ToArray(), spec, outliers, fehGaps, colour: false);
         double kc = Kappa(colourGaps), kf = Kappa(fehGaps);
-        return new Outcome(kc, kf, colourGaps.Count, fehGaps.Count, note);
+        return new Outcome(kc, kf, colourGaps.Count, fehGaps.Count, note) { GapLogLikelihood = LogLikelihood(colourGaps, kc) + LogLikelihood(fehGaps, kf) };
     }
 
     private static void Side(FitData d, int[] held, int[] train, ModelSpec spec, bool outliers, List<(double R, double V, double D)> gaps, bool colour)
@@ -61,6 +65,7 @@ internal static class ExtrapolationCalibrator
         foreach (int i in held)
         {
             fit.HeldOutLogLikelihood(i, out double r, out double v);
+            double slopeAt = basis.Gradient(coef, d.C[i], d.F[i]).DFeh;
             basis.Terms(d.C[i], d.F[i], t);
             double vp = 0;
             for (int a = 0; a < p; a++)
@@ -74,8 +79,19 @@ internal static class ExtrapolationCalibrator
                 double slope = Math.Abs(basis.Gradient(coef, d.C[i], edge).DFeh);
                 dist = slope * df;
             }
-            if (dist > 0) gaps.Add((r, v + vp, dist));
+            // A held-out standard more likely an outlier than not under the training fit's mixture is not the model's error.
+            double vt = v + vp, vb = vt + Math.Max(MixtureFit.BadFehSigma * MixtureFit.BadFehSigma * slopeAt * slopeAt, 3 * vt);
+            double good = (1 - fit.OutlierFraction) * Math.Exp(-0.5 * r * r / vt) / Math.Sqrt(vt), bad = fit.OutlierFraction * Math.Exp(-0.5 * r * r / vb) / Math.Sqrt(vb);
+            if (bad > good) continue;
+            if (dist > 0) gaps.Add((r, vt, dist));
         }
+    }
+
+    private static double LogLikelihood(List<(double R, double V, double D)> gaps, double k)
+    {
+        double s = 0;
+        foreach (var (r, v, dd) in gaps) { double tot = v + k * k * dd * dd; s += -0.5 * (r * r / tot + Math.Log(2 * Math.PI * tot)); }
+        return s;
     }
 
     /// <summary>Maximum-likelihood kappa for r ~ N(0, V + (kappa D)^2); 0 when the gaps show no extra error.</summary>

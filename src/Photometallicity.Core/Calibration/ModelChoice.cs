@@ -8,13 +8,15 @@ namespace Photometallicity.Calibration;
 /// clusters in one fold. Each fold is refitted from the other folds with the full mixture fit; the score is the mean held-out
 /// log-likelihood under the mixture (good component plus outlier component, <see cref="MixtureFit"/>), so a bad standard costs
 /// every candidate about the same and cannot decide the form, unlike a mean squared residual (the reason for the choice; see
-/// Hogg, Bovy &amp; Lang 2010, arXiv:1008.4686, section 5). The candidate with the best score wins; ties go to the
-/// simpler one. Its standard error is the spread of the per-fold scores / sqrt(folds) (Hastie, Tibshirani &amp; Friedman 2009,
+/// Hogg, Bovy &amp; Lang 2010, arXiv:1008.4686, section 5). Because the calibration is used beyond its standards (fainter, bluer
+/// giants), each form is also scored across held-out gaps: the bluest, reddest, most metal-poor and most metal-rich standards
+/// predicted from the rest, with the form's own measured extrapolation error (<see cref="ExtrapolationCalibrator"/>). The score
+/// is the mean log-likelihood over both sets of held-out standards; the best wins, ties going to the simpler form. Its standard error is the spread of the per-fold scores / sqrt(folds) (Hastie, Tibshirani &amp; Friedman 2009,
 /// The Elements of Statistical Learning, 2nd ed., section 7.10).
 /// </summary>
 internal static class ModelChoice
 {
-    internal sealed record Candidate(ModelSpec Spec, IIndexBasis? Basis, double Score, double StandardError, double[] Residual, string? Failure);
+    internal sealed record Candidate(ModelSpec Spec, IIndexBasis? Basis, double Score, double StandardError, double[] Residual, string? Failure, int Scored = 0);
 
     internal sealed record Outcome(Candidate Chosen, IReadOnlyList<Candidate> All, string Reason);
 
@@ -28,7 +30,14 @@ internal static class ModelChoice
             var basis = spec.Build(colour, feh);
             if (basis is null) { all.Add(new Candidate(spec, null, double.NaN, double.NaN, [], spec is MonotoneModelSpec ms ? $"the standards' [Fe/H] values cannot carry {ms.InteriorKnots} knots {MonotoneModelSpec.MinKnotGap} dex apart" : "the standards span no colour or [Fe/H] range")); continue; }
             if (idx.Length < spec.Count + 2) { all.Add(new Candidate(spec, basis, double.NaN, double.NaN, [], $"{idx.Length} usable standards for {spec.Count} coefficients (at least {spec.Count + 2} needed)")); continue; }
-            all.Add(Score(d, fold, folds, spec, basis, outliers));
+            var cand = Score(d, fold, folds, spec, basis, outliers);
+            if (cand.Failure is null)
+            {
+                var gaps = ExtrapolationCalibrator.Run(d, idx, spec, outliers);
+                int nGap = gaps.HeldOutColour + gaps.HeldOutFeh;
+                cand = cand with { Score = (cand.Score * cand.Scored + gaps.GapLogLikelihood) / (cand.Scored + nGap), Scored = cand.Scored + nGap };
+            }
+            all.Add(cand);
         }
         var ok = all.Where(c => c.Failure is null && double.IsFinite(c.Score)).ToList();
         foreach (var c in all)
@@ -44,7 +53,7 @@ internal static class ModelChoice
         double best = ok.Max(c => c.Score);
         var chosen = ok.Where(c => c.Score >= best - 1e-12).OrderBy(c => c.Spec.Count).First();
         string reason = string.Create(CultureInfo.InvariantCulture,
-            $"{chosen.Spec} has the best cross-validated mean log-likelihood ({chosen.Score:F3} +/- {chosen.StandardError:F3} per standard) of {ok.Count} forms tried");
+            $"{chosen.Spec} has the best cross-validated mean log-likelihood, inside and across held-out gaps ({chosen.Score:F3} +/- {chosen.StandardError:F3} per standard) of {ok.Count} forms tried");
         return new Outcome(chosen, all, reason);
     }
 
@@ -81,6 +90,6 @@ internal static class ModelChoice
         if (count == 0) return new Candidate(spec, basis, double.NaN, double.NaN, resid, "no held-out standard could be scored");
         double mean = foldScores.Average();
         double sd = foldScores.Count > 1 ? Math.Sqrt(foldScores.Sum(x => (x - mean) * (x - mean)) / (foldScores.Count - 1)) : double.NaN;
-        return new Candidate(spec, basis, total / count, sd / Math.Sqrt(foldScores.Count), resid, null);
+        return new Candidate(spec, basis, total / count, sd / Math.Sqrt(foldScores.Count), resid, null, count);
     }
 }

@@ -8,8 +8,12 @@ namespace Photometallicity.Pipeline;
 /// bootstrap ensemble, but the calibration error is common to all stars, so it does not average down with their number
 /// as the statistical error does. For each ensemble member m and each star i (with an [Fe/H], weighted by p_member) the
 /// shift dF = (f_best - f_m) / (df_m/dF) at the star's colour and median [Fe/H] is the change of [Fe/H] that member would
-/// make (first order, common practice); the standard deviation over the ensemble of the weighted mean shift is the
-/// calibration error of the mean. Uses at most <see cref="MaxStars"/> stars, taken at even steps (deterministic).
+/// make (first order, common practice; the member includes its draw of the model-form error beyond the standards). Stars are
+/// weighted as a likelihood fit of the distribution weights them, by p_member / (s_i^2 + 0.3^2) with s_i half the star's 16-84%
+/// interval and 0.3 dex a typical spread of a dwarf galaxy's distribution (a project choice; it only sets how much broad,
+/// weakly constraining stars count), and a shift is capped at the star's own interval (a star whose [Fe/H] a member cannot
+/// pin down has a broad posterior and moves the fit little). The standard deviation over the ensemble of the weighted mean
+/// shift is the calibration error of the mean. Uses at most <see cref="MaxStars"/> stars, taken at even steps (deterministic).
 /// </summary>
 public static class MdfCalibrationError
 {
@@ -30,14 +34,16 @@ public static class MdfCalibrationError
             double sw = 0, s = 0;
             foreach (int i in pick)
             {
-                double c = colour0[i], f = feh.Feh[i];
+                double c = colour0[i], f = feh.Feh[i], half = 0.5 * (feh.FehHi[i] - feh.FehLo[i]);
+                if (!(half > 0)) continue;
+                double w = pMember[i] / (half * half + 0.09);
                 // The member with its draw of the model-form error beyond the standards (none inside them).
                 var sl = model.MemberSlice(m, c);
                 double slope = (sl.At(f + 0.01).Value - sl.At(f - 0.01).Value) / 0.02;
                 if (!(Math.Abs(slope) > 1e-6)) continue;
-                double df = (basis.Value(model.Coefficients, c, f) - sl.At(f).Value) / slope;
-                s += pMember[i] * df;
-                sw += pMember[i];
+                double df = Math.Clamp((basis.Value(model.Coefficients, c, f) - sl.At(f).Value) / slope, -2 * half, 2 * half);
+                s += w * df;
+                sw += w;
             }
             shifts[m] = sw > 0 ? s / sw : double.NaN;
         }
