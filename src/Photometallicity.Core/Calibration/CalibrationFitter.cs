@@ -21,6 +21,12 @@ public static class CalibrationFitter
     /// <summary>A standard with p_outlier above this is called an outlier (the more likely of the two components).</summary>
     public const double OutlierThreshold = 0.5;
 
+    /// <summary>
+    /// Largest robust scatter (dex) of the accepted standards about the fit before the standards are called unusable: published
+    /// Ca II H and K photometric calibrations scatter by 0.1-0.3 dex (a range recalled from memory; a project choice of limit).
+    /// </summary>
+    public const double MaxScatterDex = 0.6;
+
     public static CalibrationResult Run(CalibrationStandards standards, CalibrationOptions options, ILogger? logger = null, IProgress<double>? progress = null)
     {
         logger ??= NullLogger.Instance;
@@ -104,6 +110,21 @@ public static class CalibrationFitter
         if (accepted.Count < np + 1)
             throw new MethodException($"Only {accepted.Count} standards were accepted for {np} coefficients (model \"{basis.Describe}\"); at least {np + 1} are needed.");
         double rmsIndex = Rms(accepted.Select(i => verdicts[i].ResidualIndex));
+        // The index must follow the standards' [Fe/H]: the change of the model over their [Fe/H] range, at the median standard's
+        // colour, must stand above the scatter about it (3 times the residual rms; a project choice).
+        double fLo = accepted.Min(i => standards.Feh[i]), fHi = accepted.Max(i => standards.Feh[i]);
+        double cMed = accepted.Select(i => standards.Colour0[i]).Order().ElementAt(accepted.Count / 2);
+        double swing = basis.Value(coef, cMed, fHi) - basis.Value(coef, cMed, fLo);
+        if (!(Math.Abs(swing) > 3 * rmsIndex))
+            throw new MethodException(string.Create(CultureInfo.InvariantCulture,
+                $"The standards' index does not follow their [Fe/H]: over their range {fLo:F2} to {fHi:F2} dex the fitted index changes by {swing:F3} mag at colour {cMed:F2}, against a scatter of {rmsIndex:F3} mag about the fit. Check that the standards' [Fe/H] column is the right one and that they are matched to the right stars."));
+        // With most standards wrong the mixture cannot tell good from bad and settles on a broad relation instead: the accepted
+        // standards then scatter by far more than any photometric calibration (robust sigma 1.4826 MAD above MaxScatterDex).
+        var absDex = accepted.Select(i => Math.Abs(verdicts[i].ResidualDex)).Where(double.IsFinite).Order().ToArray();
+        double robustDex = absDex.Length > 0 ? 1.4826 * absDex[absDex.Length / 2] : double.NaN;
+        if (robustDex > MaxScatterDex)
+            throw new MethodException(string.Create(CultureInfo.InvariantCulture,
+                $"The {accepted.Count} accepted standards scatter by {robustDex:F2} dex (robust sigma) about the best calibration, more than {MaxScatterDex} dex: more than half of them disagree with any smooth calibration, or the index does not measure [Fe/H]. Check the standards' [Fe/H] column, their cross-match to the catalogue and the band columns."));
         double rmsDex = Rms(accepted.Select(i => verdicts[i].ResidualDex));
         double cvRmsIndex = Rms(accepted.Select(i => verdicts[i].CvResidualIndex));
         double cvRmsDex = Rms(accepted.Select(i => verdicts[i].CvResidualDex));

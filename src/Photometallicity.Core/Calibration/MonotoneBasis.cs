@@ -134,7 +134,7 @@ public sealed class MonotoneBasis : IIndexBasis, IEquatable<MonotoneBasis>
             {
                 double alpha = c[d + 1 + j], beta = c[d + 1 + n + j];
                 double s = alpha * (1 - t) + beta * t;
-                if (s > 0) { _s[j] = s; _ds[j] = (beta - alpha) * dtdc; }
+                if (s >= 0) { _s[j] = s; _ds[j] = (beta - alpha) * dtdc; } // at s = 0 inside the colours the linear form holds
             }
         }
 

@@ -30,7 +30,7 @@ public class MdfCalibrationErrorTest
         var feh = Enumerable.Range(0, n).Select(i => -2.5 + 2.0 * ((i * 7) % n) / n).ToArray();
         var result = new MetallicityResult
         {
-            Feh = feh, FehLo = feh, FehHi = feh, FehLimit = new double[n], LimitSide = new FehLimitSide[n], Status = new MetallicityStatus[n],
+            Feh = feh, FehLo = feh.Select(f => f - 0.2).ToArray(), FehHi = feh.Select(f => f + 0.2).ToArray(), FehLimit = new double[n], LimitSide = new FehLimitSide[n], Status = new MetallicityStatus[n],
             Likelihoods = new FehLikelihoods { GridMin = -4, GridStep = 0.01, GridCount = 1, Offset = new int[n], Start = new int[n], Length = new int[n], Values = [] },
             Counts = new Dictionary<MetallicityStatus, int>(), ColourNodeStep = 0.01, EnsembleMembers = 400,
         };
