@@ -21,6 +21,23 @@ public sealed record Extrapolation(double ColourLo, double ColourHi, double FehL
 
     public bool InsideFeh(double feh) => feh >= FehLo && feh <= FehHi;
 
+    /// <summary>
+    /// The variance (mag^2) the model-form error adds to the index at (colour, feh), to first order: (KappaColour d_C)^2 plus
+    /// (KappaFeh (f(F) - f(F_edge)))^2 beyond the [Fe/H] support, with f the best fit at this colour (<paramref name="best"/>).
+    /// This is the per-star marginal of the members' draws (exact for the colour term, first order in KappaFeh for the other),
+    /// which lets the [Fe/H] assignment add it to each star's variance instead of spreading the members.
+    /// </summary>
+    public double ModelFormVariance(IndexSlice best, double colour, double feh)
+    {
+        double d = ColourDistance(colour), v = KappaColour * KappaColour * d * d;
+        if (feh > FehHi || feh < FehLo)
+        {
+            double df = best.At(feh).Value - best.At(feh > FehHi ? FehHi : FehLo).Value;
+            v += KappaFeh * KappaFeh * df * df;
+        }
+        return v;
+    }
+
     /// <summary>Ensemble member <paramref name="member"/>'s model at one colour, with its draw of the model-form error.</summary>
     public IndexSlice Perturb(IIndexBasis basis, ReadOnlySpan<double> coefficients, double colour, int member)
     {

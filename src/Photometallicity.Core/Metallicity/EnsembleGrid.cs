@@ -47,6 +47,27 @@ internal sealed class EnsembleGrid
     /// <summary>Largest |df_m/dF| over members between points j and j + 1 at node k, [k * RowStride + j] (mag/dex).</summary>
     public required float[] FehSlopeMax { get; init; }
 
+    /// <summary>
+    /// Variance the calibration's model-form error adds beyond the standards (<see cref="Extrapolation.ModelFormVariance"/>),
+    /// per level at [k * level.RowStride + i] (zero inside the standards and for calibrations without an extrapolation model).
+    /// </summary>
+    public required float[][] ModelFormVariance { get; init; }
+
+    /// <summary>
+    /// The members' Gaussian moments per level at [k * level.RowStride + i]: mean f, mean df/dC, and the members' variance of f
+    /// plus the model-form variance (mag^2). A star whose subset rule asks for more members than the minimum is evaluated on these
+    /// (see <see cref="LikelihoodKernel"/>).
+    /// </summary>
+    public required float[][] MeanValue { get; init; }
+    public required float[][] MeanSlope { get; init; }
+    public required float[][] SpreadVariance { get; init; }
+
+    /// <summary>Mean of the members' sigma_int^2 (mag^2).</summary>
+    public required float SigmaInt2Mean { get; init; }
+
+    /// <summary>Largest model-form variance at node k over the tabulated points (mag^2).</summary>
+    public required double[] ModelFormVarianceMax { get; init; }
+
     /// <summary>Variance of f_m over the members at node k and point j, [k * RowStride + j] (mag^2).</summary>
     public required float[] EnsembleVariance { get; init; }
     public required double[] SlopeMin { get; init; }
@@ -97,6 +118,12 @@ internal sealed class EnsembleGrid
         var envMin = new float[nc * stride];
         var envMax = new float[nc * stride];
         var dir = new sbyte[nc];
+        var extra = levels.Select(lv => new float[nc * lv.RowStride]).ToArray();
+        var extraMax = new double[nc];
+        var meanValue = levels.Select(lv => new float[nc * lv.RowStride]).ToArray();
+        var meanSlope = levels.Select(lv => new float[nc * lv.RowStride]).ToArray();
+        var spread = levels.Select(lv => new float[nc * lv.RowStride]).ToArray();
+        var form = ApplicationDomain.Extrapolates(model, options) ? model.Extrapolation : null;
         var gmin = new double[nc];
         var gmax = new double[nc];
 
@@ -106,6 +133,14 @@ internal sealed class EnsembleGrid
             var bs = model.Basis.Slice(model.Coefficients, c);
             for (int j = 0; j < nf; j++)
                 (best[k * stride + j], bestSlope[k * stride + j]) = bs.At(gridMin + (first + j) * gridStep);
+            if (form is not null)
+                for (int l = 0; l < levels.Length; l++)
+                    for (int i = 0; i < levels[l].Count; i++)
+                    {
+                        double v = form.ModelFormVariance(bs, c, gridMin + (first + i * levels[l].Stride) * gridStep);
+                        extra[l][k * levels[l].RowStride + i] = (float)v;
+                        extraMax[k] = Math.Max(extraMax[k], v);
+                    }
             var lo = envMin.AsSpan(k * stride, nf);
             var hi = envMax.AsSpan(k * stride, nf);
             lo.Fill(float.PositiveInfinity);
@@ -115,7 +150,7 @@ internal sealed class EnsembleGrid
             var sum2 = new double[nf];
             for (int mm = 0; mm < m; mm++)
             {
-                var s = model.MemberSlice(mm, c);
+                var s = model.Basis.Slice(ens[mm], c);
                 var full = levels[0];
                 long row = full.Row(k, mm);
                 for (int j = 0; j < nf; j++)
@@ -148,6 +183,26 @@ internal sealed class EnsembleGrid
                     }
                 }
             }
+            // Gaussian moments of the members at every tabulated point of every level.
+            for (int l = 0; l < levels.Length; l++)
+            {
+                var lv = levels[l];
+                for (int i = 0; i < lv.Count; i++)
+                {
+                    double sf = 0, sf2 = 0, sg = 0;
+                    for (int mm = 0; mm < m; mm++)
+                    {
+                        long r = lv.Row(k, mm) + i;
+                        double f = lv.Value[r];
+                        sf += f; sf2 += f * f; sg += lv.Slope[r];
+                    }
+                    int at = k * lv.RowStride + i;
+                    double mean = sf / m;
+                    meanValue[l][at] = (float)mean;
+                    meanSlope[l][at] = (float)(sg / m);
+                    spread[l][at] = (float)(Math.Max(0, sf2 / m - mean * mean) + extra[l][at]);
+                }
+            }
             fehSlope[k * stride + nf - 1] = fehSlope[k * stride + nf - 2];
             for (int j = 0; j < nf; j++) ensVar[k * stride + j] = (float)Math.Max(0, sum2[j] / m - (sum[j] / m) * (sum[j] / m));
             gmin[k] = g0;
@@ -156,18 +211,19 @@ internal sealed class EnsembleGrid
         });
 
         var sint2 = new float[m];
-        double sMax = 0, sMin = double.PositiveInfinity;
+        double sMax = 0, sMin = double.PositiveInfinity, sMean = 0;
         for (int mm = 0; mm < m; mm++)
         {
             double s = model.EnsembleSigmaInt[mm];
             sint2[mm] = (float)(s * s);
             sMax = Math.Max(sMax, s * s);
             sMin = Math.Min(sMin, s * s);
+            sMean += s * s / m;
         }
         return new EnsembleGrid
         {
             Members = m, ColourNodes = nc, ColourMin = cmin, ColourStep = h, FehFirst = first, FehCount = nf, RowStride = stride,
-            Levels = levels, FehSlopeMax = fehSlope, EnsembleVariance = ensVar, SigmaInt2 = sint2, SigmaInt2Min = sMin, BestValue = best, BestSlope = bestSlope,
+            Levels = levels, MeanValue = meanValue, MeanSlope = meanSlope, SpreadVariance = spread, SigmaInt2Mean = (float)sMean, ModelFormVariance = extra, ModelFormVarianceMax = extraMax, FehSlopeMax = fehSlope, EnsembleVariance = ensVar, SigmaInt2 = sint2, SigmaInt2Min = sMin, BestValue = best, BestSlope = bestSlope,
             EnvelopeMin = envMin, EnvelopeMax = envMax, Direction = dir, SlopeMin = gmin, SlopeMax = gmax, SigmaInt2Max = sMax,
         };
     }

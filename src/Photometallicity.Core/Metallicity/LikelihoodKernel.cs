@@ -7,7 +7,8 @@ namespace Photometallicity.Metallicity;
 /// <summary>
 /// The ensemble-marginalised likelihood of one star on the [Fe/H] grid:
 /// L(F) = (1/M) sum_m N(X0; f_m(C0, F), s_m^2(F)), with
-/// s_m^2 = Var(X0) + g_m^2 Var(C0) - 2 g_m Cov(X0, C0) + sigma_int,m^2 and g_m = df_m/dC at (C0, F).
+/// s_m^2 = Var(X0) + g_m^2 Var(C0) - 2 g_m Cov(X0, C0) + sigma_int,m^2 + V_form(C0, F) and g_m = df_m/dC at (C0, F), V_form the
+/// calibration's model-form variance beyond its standards (<see cref="Calibration.Extrapolation.ModelFormVariance"/>, zero inside).
 /// Derivation (first order): the true colour is C = C0 - dC with (dX, dC) the measurement errors; X0 = f_m(C, F) + dX + e_int
 /// ~ f_m(C0, F) - g_m dC + dX + e_int, so X0 - f_m(C0, F) has variance Var(dX) + g_m^2 Var(dC) - 2 g_m Cov(dX, dC) + sigma_int^2.
 /// Only grid points within a window where some member has |X0 - f_m| &lt; W sigma_max are evaluated; outside it every term is
@@ -15,6 +16,12 @@ namespace Photometallicity.Metallicity;
 /// the residual X0 - f is ~1e-7 mag accurate and the likelihood ratio ~1e-6, far below what the percentiles need).
 /// Stars are processed in batches, member-outer: one member's rows stay in the fastest cache while every star of the batch
 /// reads them (stars of a batch mostly share a colour node, as the assigner sorts them by colour).
+/// A star whose ensemble-subset rule asks for more than the minimum subset (its likelihood is narrow against the members' spread,
+/// which happens for bright stars and beyond the standards, where the bootstrap members fan out) is evaluated on the members'
+/// Gaussian moments instead: at each (C0, F) the mixture (1/M) sum_m N(X0; f_m, s^2) over members whose f_m are normally
+/// distributed with mean f-bar and variance tau^2 is exactly N(X0; f-bar, s^2 + tau^2) (the convolution of two Gaussians), so one
+/// pass over the mean curve with the spread added to the variance replaces M passes; the members' colour slopes and sigma_int^2
+/// enter through their means. Stars that need few members (broad likelihoods) keep the exact mixture over a subset.
 /// One instance per thread (it owns scratch space).
 /// </summary>
 internal sealed class LikelihoodKernel
@@ -49,6 +56,7 @@ internal sealed class LikelihoodKernel
     private struct StarTask
     {
         public int K, A, B, Level, Ia, Ib, FirstMember, MemberCount;
+        public bool Gaussian;
         public float T, X0, VarX, VarC, Cov;
     }
 
@@ -67,7 +75,7 @@ internal sealed class LikelihoodKernel
         double ql = gl * gl * varC - 2 * gl * cov, qh = gh * gh * varC - 2 * gh * cov;
         double gs = varC > 0 ? Math.Clamp(cov / varC, gl, gh) : gl;
         double qMin = Math.Min(Math.Min(ql, qh), gs * gs * varC - 2 * gs * cov);
-        double sMax = Math.Sqrt(Math.Max(varX + Math.Max(ql, qh) + g.SigmaInt2Max, 1e-30));
+        double sMax = Math.Sqrt(Math.Max(varX + Math.Max(ql, qh) + g.SigmaInt2Max + Math.Max(g.ModelFormVarianceMax[k], g.ModelFormVarianceMax[k + 1]), 1e-30));
         float lowX = (float)(x0 - windowSigmas * sMax), highX = (float)(x0 + windowSigmas * sMax);
         FindWindow(k, t, lowX, highX, j0, j1, out a, out b);
         if (b <= a) return false;
@@ -92,11 +100,13 @@ internal sealed class LikelihoodKernel
         int level = 0;
         while (level + 1 < g.Levels.Length && (1 << (level + 1)) <= perStep) level++;
         int stride = g.Levels[level].Stride;
+        bool gaussian = _subsetTol > 0 && members > Math.Min(_minSubset, g.Members);
         _tasks[Queued++] = new StarTask
         {
             K = k, T = t, X0 = (float)x0, VarX = (float)varX, VarC = (float)varC, Cov = (float)cov, A = a, B = b, Level = level,
             Ia = a / stride, Ib = (b - 1 + stride - 1) / stride,
-            MemberCount = members, FirstMember = members == g.Members ? 0 : (int)(key * 7919 % g.Members),
+            MemberCount = gaussian ? 0 : members, FirstMember = members == g.Members ? 0 : (int)(key * 7919 % g.Members),
+            Gaussian = gaussian,
         };
         return true;
     }
@@ -108,6 +118,7 @@ internal sealed class LikelihoodKernel
         {
             ref var s = ref _tasks[q];
             Array.Clear(_acc[q], s.Ia, VectorSpan(s.Ib + 1 - s.Ia));
+            if (s.Gaussian) AccumulateGaussian(ref s, _acc[q]);
         }
         int m = _g.Members;
         for (int mm = 0; mm < m; mm++)
@@ -197,9 +208,48 @@ internal sealed class LikelihoodKernel
         return l;
     }
 
+    /// <summary>One pass over the members' mean curve with their spread and the model-form variance added (see the class summary).</summary>
+    private void AccumulateGaussian(ref StarTask s, float[] accArr)
+    {
+        var lv = _g.Levels[s.Level];
+        int w = Vector<float>.Count;
+        int nv = VectorSpan(s.Ib + 1 - s.Ia) / w;
+        ref float acc = ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(accArr), s.Ia);
+        ref float val = ref MemoryMarshal.GetArrayDataReference(_g.MeanValue[s.Level]);
+        ref float slo = ref MemoryMarshal.GetArrayDataReference(_g.MeanSlope[s.Level]);
+        ref float spr = ref MemoryMarshal.GetArrayDataReference(_g.SpreadVariance[s.Level]);
+        nuint r0 = (nuint)(s.K * lv.RowStride + s.Ia), r1 = (nuint)((s.K + 1) * lv.RowStride + s.Ia);
+        var vt = new Vector<float>(s.T);
+        var vx = new Vector<float>(s.X0);
+        var vc = new Vector<float>(s.VarC);
+        var v2cov = new Vector<float>(2f * s.Cov);
+        var va = new Vector<float>(s.VarX + _g.SigmaInt2Mean);
+        var half = new Vector<float>(-0.5f);
+        var tiny = new Vector<float>(1e-12f);
+        for (int i = 0; i < nv; i++)
+        {
+            nuint o = (nuint)(i * w);
+            var f0 = Vector.LoadUnsafe(ref val, r0 + o);
+            var f1 = Vector.LoadUnsafe(ref val, r1 + o);
+            var s0 = Vector.LoadUnsafe(ref slo, r0 + o);
+            var s1 = Vector.LoadUnsafe(ref slo, r1 + o);
+            var p0 = Vector.LoadUnsafe(ref spr, r0 + o);
+            var p1 = Vector.LoadUnsafe(ref spr, r1 + o);
+            var f = f0 + vt * (f1 - f0);
+            var gg = s0 + vt * (s1 - s0);
+            var s2 = Vector.Max(va + p0 + vt * (p1 - p0) + gg * (gg * vc - v2cov), tiny);
+            var inv = Vector<float>.One / s2;
+            var d = vx - f;
+            var like = FastExp.NonPositive(half * d * d * inv) * Vector.SquareRoot(inv);
+            Vector.StoreUnsafe(like, ref Unsafe.Add(ref acc, i * w));
+        }
+    }
+
     private void AccumulateMember(ref StarTask s, float[] accArr, int mm, float sint2)
     {
         var lv = _g.Levels[s.Level];
+        ref float ext = ref MemoryMarshal.GetArrayDataReference(_g.ModelFormVariance[s.Level]);
+        nuint e0 = (nuint)(s.K * lv.RowStride + s.Ia), e1 = (nuint)((s.K + 1) * lv.RowStride + s.Ia);
         int w = Vector<float>.Count;
         int nv = VectorSpan(s.Ib + 1 - s.Ia) / w;
         ref float acc = ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(accArr), s.Ia);
@@ -223,7 +273,9 @@ internal sealed class LikelihoodKernel
             var s1 = Vector.LoadUnsafe(ref slo, r1 + o);
             var f = f0 + vt * (f1 - f0);
             var gg = s0 + vt * (s1 - s0);
-            var s2 = Vector.Max(va + gg * (gg * vc - v2cov), tiny);
+            var x0 = Vector.LoadUnsafe(ref ext, e0 + o);
+            var x1 = Vector.LoadUnsafe(ref ext, e1 + o);
+            var s2 = Vector.Max(va + x0 + vt * (x1 - x0) + gg * (gg * vc - v2cov), tiny);
             var inv = Vector<float>.One / s2;
             var d = vx - f;
             var like = FastExp.NonPositive(half * d * d * inv) * Vector.SquareRoot(inv);

@@ -151,7 +151,9 @@ internal sealed class StarSolver
         int s = _g.RowStride;
         double f = _g.BestValue[k * s + j] + t * (_g.BestValue[(k + 1) * s + j] - _g.BestValue[k * s + j]);
         double g = _g.BestSlope[k * s + j] + t * (_g.BestSlope[(k + 1) * s + j] - _g.BestSlope[k * s + j]);
-        return (f, Math.Sqrt(Math.Max(vx + g * g * vc - 2 * g * cov + _sint2Best, 1e-30)));
+        var ext = _g.ModelFormVariance[0];
+        double e = ext[k * s + j] + t * (ext[(k + 1) * s + j] - ext[k * s + j]);
+        return (f, Math.Sqrt(Math.Max(vx + g * g * vc - 2 * g * cov + _sint2Best + e, 1e-30)));
     }
 
     /// <summary>The q-quantile of the posterior held in _post[0 .. n-1] (tabulated points a ..), trapezoid CDF, linear interpolation.</summary>

@@ -48,6 +48,8 @@ public static class SummaryBuilder
             summary["members"] = Members(mem, c.Membership.MagnitudeBand);
             double cal = r.MdfCalibrationErrorDex;
             summary["mdf"] = Mdf(mem.Mdf, cal);
+            if (r.Metallicity is { } fehResult)
+                summary["depth"] = DepthTable.Build(r.Photometry.Index, fehResult, mem, c.Target.DistanceModulus, r.Match.RightIndex.Select(k => k >= 0).ToArray());
             summary["mdf_modes"] = new JsonObject
             {
                 ["configured"] = c.Membership.UseMetallicity ? "with_metallicity_term" : "without_metallicity_term",
