@@ -80,6 +80,10 @@ public static class CalibrationFitter
         if (fit.Passes > 200)
             logger.LogWarning("calibration: the outlier mixture did not settle after 200 passes; the last pass is used");
         var coef = fit.Coefficients.ToArray();
+        // sigma_int marginalised over its uncertainty (see MixtureFit.PosteriorMeanSigmaInt2): the excess of the posterior mean
+        // of sigma_int^2 over the ML value is added to the model's and every ensemble member's sigma_int^2.
+        double sigmaIntMl = fit.SigmaInt;
+        double sigmaExcess2 = Math.Max(0, fit.PosteriorMeanSigmaInt2() - sigmaIntMl * sigmaIntMl);
         var cov = new double[np * np];
         if (!fit.Covariance(cov)) throw new MethodException($"The calibration's Fisher matrix is singular for the model \"{basis.Describe}\"; the accepted standards do not constrain its {np} coefficients.");
 
@@ -167,9 +171,9 @@ public static class CalibrationFitter
             Basis = basis,
             Coefficients = coef,
             CoefficientCovariance = cov,
-            SigmaInt = fit.SigmaInt,
+            SigmaInt = Math.Sqrt(sigmaIntMl * sigmaIntMl + sigmaExcess2),
             EnsembleCoefficients = boot.Coefficients,
-            EnsembleSigmaInt = boot.SigmaInt,
+            EnsembleSigmaInt = boot.SigmaInt.Select(sm => Math.Sqrt(sm * sm + sigmaExcess2)).ToArray(),
             Domain = domain,
             Extrapolation = extrapolation,
             OutlierFraction = fit.OutlierFraction,
@@ -180,8 +184,8 @@ public static class CalibrationFitter
             StandardsRejected = n - accepted.Count,
             Provenance = provenance,
         };
-        logger.LogInformation("calibration: {Model}; {Used} of {N} standards accepted ({Flagged} flagged as outliers, fitted outlier share {Share:F3}), sigma_int {Sigma:F4} mag, rms {Rms:F4} mag = {RmsDex:F3} dex, {B} bootstrap replicates",
-            basis.Describe, accepted.Count, n, flagged, fit.OutlierFraction, fit.SigmaInt, rmsIndex, rmsDex, options.Bootstrap);
+        logger.LogInformation("calibration: {Model}; {Used} of {N} standards accepted ({Flagged} flagged as outliers, fitted outlier share {Share:F3}), sigma_int {Sigma:F4} mag (maximum likelihood {Ml:F4}), rms {Rms:F4} mag = {RmsDex:F3} dex, {B} bootstrap replicates",
+            basis.Describe, accepted.Count, n, flagged, fit.OutlierFraction, model.SigmaInt, sigmaIntMl, rmsIndex, rmsDex, options.Bootstrap);
         return new CalibrationResult
         {
             Model = model,
@@ -192,6 +196,7 @@ public static class CalibrationFitter
             CvRmsIndex = cvRmsIndex,
             CvRmsDex = cvRmsDex,
             OutlierFraction = fit.OutlierFraction,
+            SigmaIntMaximumLikelihood = sigmaIntMl,
             Notes = notes,
             BootstrapRedrawn = boot.Redrawn,
             FitPasses = fit.Passes,

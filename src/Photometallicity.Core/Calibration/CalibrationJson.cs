@@ -137,6 +137,7 @@ public static class CalibrationJson
         Num(w, "cv_rms_index_mag", r.CvRmsIndex);
         Num(w, "cv_rms_dex", r.CvRmsDex);
         Num(w, "outlier_fraction", r.OutlierFraction);
+        Num(w, "sigma_int_maximum_likelihood_mag", r.SigmaIntMaximumLikelihood);
         w.WriteStartArray("notes");
         foreach (var n in r.Notes) w.WriteStringValue(n);
         w.WriteEndArray();

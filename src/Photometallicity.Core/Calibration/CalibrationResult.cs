@@ -24,6 +24,9 @@ public sealed record CalibrationResult
     public double CvRmsIndex { get; init; }
     public double CvRmsDex { get; init; }
 
+    /// <summary>Maximum-likelihood sigma_int (mag); the model carries the posterior mean of sigma_int^2 instead (see MixtureFit.PosteriorMeanSigmaInt2).</summary>
+    public double SigmaIntMaximumLikelihood { get; init; }
+
     /// <summary>Fitted share of bad standards (the outlier component's weight).</summary>
     public double OutlierFraction { get; init; }
 

@@ -195,6 +195,36 @@ internal sealed class MixtureFit
         return Math.Log(Math.Max(good + outl, 1e-300));
     }
 
+    /// <summary>
+    /// The posterior mean of sigma_int^2 (mag^2) under a flat prior on sigma_int, at the last fit's coefficients and kept
+    /// standards: E[s^2] = Int s^2 L(s) ds / Int L(s) ds on a grid of 2000 points from 0 to 10 times the larger of the ML value
+    /// and the kept standards' residual rms (trapezoid rule). When the standards' own errors dominate their scatter, sigma_int is
+    /// poorly determined and its ML value (often zero) understates what the stars may scatter by; the per-star variance is linear
+    /// in sigma_int^2, so marginalising over sigma_int means using this mean (Gelman et al. 2013, Bayesian Data Analysis, 3rd ed.,
+    /// section 5.3 on hierarchical variances, where the same point is made; the flat prior on the scale is their recommendation
+    /// for a variance component, recalled from memory).
+    /// </summary>
+    public double PosteriorMeanSigmaInt2()
+    {
+        double rms = 0, wsum = 0;
+        foreach (int i in _rows) { double wq = _w[i] * _q[i]; rms += wq * _resid[i] * _resid[i]; wsum += wq; }
+        rms = wsum > 0 ? Math.Sqrt(rms / wsum) : 0;
+        double top = 10 * Math.Max(SigmaInt, rms);
+        if (!(top > 0)) return 0;
+        const int n = 2000;
+        var m2l = new double[n + 1];
+        double min = double.PositiveInfinity;
+        for (int k = 0; k <= n; k++) { double sg = top * k / n; m2l[k] = MinusTwoLnLGood(sg * sg); min = Math.Min(min, m2l[k]); }
+        double z = 0, e = 0;
+        for (int k = 0; k <= n; k++)
+        {
+            double sg = top * k / n, l = Math.Exp(-0.5 * (m2l[k] - min)) * (k == 0 || k == n ? 0.5 : 1.0);
+            z += l;
+            e += l * sg * sg;
+        }
+        return e / z;
+    }
+
     /// <summary>Inverse Fisher matrix of the coefficients at the last fit, good standards weighted by q_i (row-major p x p).</summary>
     public bool Covariance(Span<double> cov)
     {
