@@ -157,8 +157,7 @@ public static class CalibrationFitter
             draws[m] = [rng.NextGaussian(0, 1), rng.NextGaussian(0, 1), rng.NextGaussian(0, 1), rng.NextGaussian(0, 1)];
         }
         var acc = accepted.ToArray();
-        var extrapolation = new Extrapolation(acc.Min(i => standards.Colour0[i]), acc.Max(i => standards.Colour0[i]),
-            acc.Min(i => standards.Feh[i]), acc.Max(i => standards.Feh[i]), extra.KappaColour, extra.KappaFeh, draws);
+        var extrapolation = new Extrapolation(domain, extra.KappaColour, extra.KappaFeh, draws);
 
         var provenance = new SortedDictionary<string, string>(StringComparer.Ordinal);
         if (options.Provenance is not null) foreach (var kv in options.Provenance) provenance[kv.Key] = kv.Value;

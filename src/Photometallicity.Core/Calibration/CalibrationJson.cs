@@ -74,7 +74,7 @@ public static class CalibrationJson
         if (model.Extrapolation is { } x)
         {
             w.WriteStartObject("extrapolation");
-            w.WriteString("form", "beyond the support box, member m's index moves by kappa_colour * d_colour * z[m][0 blue | 1 red] and its change beyond the [Fe/H] support is scaled by exp(kappa_feh * z[m][2 metal-poor | 3 metal-rich])");
+            w.WriteString("form", "the support is domain.hull (support_colour and support_feh are its bounding box); beyond it a star's index variance grows by the smaller of (kappa_colour * d_colour)^2 and (kappa_feh * (f(F) - f(F_edge)))^2; ensemble member m's draw moves its index by kappa_colour * d_colour * z[m][0 blue | 1 red] beyond the standards' colours and scales its change beyond the hull's [Fe/H] by exp(kappa_feh * z[m][2 metal-poor | 3 metal-rich])");
             Arr(w, "support_colour", [x.ColourLo, x.ColourHi]);
             Arr(w, "support_feh", [x.FehLo, x.FehHi]);
             Num(w, "kappa_colour", x.KappaColour);

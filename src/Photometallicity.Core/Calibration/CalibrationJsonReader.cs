@@ -113,7 +113,7 @@ public static class CalibrationJsonReader
             var z = new double[ens.Length][];
             int zi = 0;
             foreach (var row in za.EnumerateArray()) { z[zi] = r.DoubleArray(row, $"extrapolation.z[{zi}]", 4); zi++; }
-            extra = new Extrapolation(sc[0], sc[1], sf[0], sf[1], kc, kf, z);
+            extra = new Extrapolation(new ValidityDomain(hull, []), kc, kf, z); // the support is the domain's hull; support_colour/_feh are its box, for reading
         }
 
         var prov = new SortedDictionary<string, string>(StringComparer.Ordinal);

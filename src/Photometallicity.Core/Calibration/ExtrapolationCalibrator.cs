@@ -6,10 +6,10 @@ namespace Photometallicity.Calibration;
 /// the rest (on a basis placed on the rest), and the held-out standards' residuals across the gap are fitted by
 ///   r_i ~ N(0, V_i + t_i^T Cov t_i + (kappa d_i)^2)
 /// (V_i the effective variance, t_i^T Cov t_i the fit's own prediction variance from its inverse Fisher matrix, d_i the colour
-/// distance from the training standards), by maximum likelihood in kappa (Brent in ln kappa, or kappa = 0 when that is better);
+/// distance from the convex hull of the training standards at the held-out standard's [Fe/H]), by maximum likelihood in kappa (Brent in ln kappa, or kappa = 0 when that is better);
 /// likewise the reddest share; the two sides give one KappaColour (joint likelihood). For [Fe/H], the most metal-poor and most
 /// metal-rich shares are held out and the extra variance is (kappa_F |df/dF|_edge d_F)^2 with d_F the [Fe/H] distance beyond the
-/// training standards and the slope taken at the training edge. Standards the fit calls outliers (p_outlier &gt; 0.5) are not
+/// training standards' hull at the held-out colour and the slope taken at the hull's edge. Standards the fit calls outliers (p_outlier &gt; 0.5) are not
 /// used. Held-out-region cross-validation: a way to measure how prediction error grows with distance from the data (a common
 /// practice; the growth linear in the distance is a project choice, the first term of any smooth model error).
 /// </summary>
@@ -61,7 +61,7 @@ internal static class ExtrapolationCalibrator
         if (!fit.Covariance(cov)) return;
         var coef = fit.Coefficients.ToArray();
         Span<double> t = stackalloc double[p];
-        double cLo = tc.Min(), cHi = tc.Max(), fLo = tf.Min(), fHi = tf.Max();
+        var hull = new Extrapolation(new ValidityDomain(ValidityDomain.ConvexHull(tc.Zip(tf)), []), 0, 0, []);
         foreach (int i in held)
         {
             fit.HeldOutLogLikelihood(i, out double r, out double v);
@@ -71,12 +71,13 @@ internal static class ExtrapolationCalibrator
             for (int a = 0; a < p; a++)
                 for (int b = 0; b < p; b++) vp += t[a] * cov[a * p + b] * t[b];
             double dist;
-            if (colour) dist = d.C[i] < cLo ? cLo - d.C[i] : d.C[i] > cHi ? d.C[i] - cHi : 0;
+            if (colour) dist = Math.Abs(hull.ColourDistance(d.C[i], d.F[i]));
             else
             {
-                double edge = d.F[i] < fLo ? fLo : fHi;
-                double df = d.F[i] < fLo ? fLo - d.F[i] : d.F[i] > fHi ? d.F[i] - fHi : 0;
-                double slope = Math.Abs(basis.Gradient(coef, d.C[i], edge).DFeh);
+                var (lo, hi) = hull.FehEdges(d.C[i]);
+                double edge = d.F[i] < lo ? lo : hi;
+                double df = d.F[i] < lo ? lo - d.F[i] : d.F[i] > hi ? d.F[i] - hi : 0;
+                double slope = Math.Abs(basis.Gradient(coef, Math.Clamp(d.C[i], hull.ColourLo, hull.ColourHi), edge).DFeh);
                 dist = slope * df;
             }
             // A held-out standard more likely an outlier than not under the training fit's mixture is not the model's error.

@@ -212,7 +212,7 @@ public static class FilterTransfer
             EnsembleCoefficients = ens,
             EnsembleSigmaInt = ensSigma,
             Domain = new ValidityDomain(hull, excluded),
-            Extrapolation = old.Extrapolation is { } x ? MapExtrapolation(x, t) : null,
+            Extrapolation = old.Extrapolation is { } x ? MapExtrapolation(x, t, new ValidityDomain(hull, [])) : null,
             Filters = newFilters,
             RmsIndex = old.RmsIndex / Math.Abs(t.B1),
             Provenance = prov,
@@ -220,13 +220,12 @@ public static class FilterTransfer
     }
 
     /// <summary>
-    /// The support box in the new colours; the colour error per new colour magnitude is kappa |a1| / |b1| (the old index error
+    /// The support (the standards' hull) in the new colours; the colour error per new colour magnitude is kappa |a1| / |b1| (the old index error
     /// per old colour magnitude, through dC_old/dC_new = a1 and the index scale 1/b1); with a1 &lt; 0 the blue and red sides swap.
     /// </summary>
-    private static Extrapolation MapExtrapolation(Extrapolation x, FilterTransform t)
+    private static Extrapolation MapExtrapolation(Extrapolation x, FilterTransform t, ValidityDomain newHull)
     {
-        double lo = t.NewColour(x.ColourLo), hi = t.NewColour(x.ColourHi);
         var z = t.A1 > 0 ? x.Z : x.Z.Select(v => new[] { v[1], v[0], v[2], v[3] }).ToArray();
-        return x with { ColourLo = Math.Min(lo, hi), ColourHi = Math.Max(lo, hi), KappaColour = x.KappaColour * Math.Abs(t.A1) / Math.Abs(t.B1), Z = z };
+        return x with { Support = newHull, KappaColour = x.KappaColour * Math.Abs(t.A1) / Math.Abs(t.B1), Z = z };
     }
 }

@@ -59,6 +59,17 @@ public sealed record ValidityDomain(IReadOnlyList<(double Colour, double Feh)> H
         return double.IsFinite(lo) ? (lo, hi) : null;
     }
 
+    /// <summary>
+    /// The colour interval the hull covers at this [Fe/H] (the horizontal chord of the convex polygon), or null when the [Fe/H]
+    /// lies outside the hull's [Fe/H] span.
+    /// </summary>
+    public (double ColourLo, double ColourHi)? ColourRangeAt(double feh)
+    {
+        if (!(feh >= FehMin && feh <= FehMax) || Hull.Count == 0) return null;
+        var swapped = new ValidityDomain(Hull.Select(v => (v.Feh, v.Colour)).ToArray(), []);
+        return swapped.FehRangeAt(feh) is { } r ? (r.FehLo, r.FehHi) : null;
+    }
+
     /// <summary>True when the point lies inside or on the hull and outside excluded colours.</summary>
     public bool Contains(double colour, double feh)
     {

@@ -140,7 +140,7 @@ internal sealed class StarSolver
         double p16 = Percentile(a, b - a, 0.16);
         double p84 = Percentile(a, b - a, 0.84);
         var st = Math.Max(zAbove, zBelow) > _truncZ ? MetallicityStatus.PosteriorTruncated
-            : _extrapolation is { } e && (!e.InsideColour(p.Colour) || !e.InsideFeh(med)) ? MetallicityStatus.Extrapolated
+            : _extrapolation is { } e && !e.Inside(p.Colour, med) ? MetallicityStatus.Extrapolated
             : MetallicityStatus.Ok;
         if (store is not null) stored = Store(a, like, store);
         return new StarSummary(st, med, p16, p84, double.NaN, FehLimitSide.None);
