@@ -121,7 +121,7 @@ public static class CalibrationFitter
         double swing = basis.Value(coef, cMed, fHi) - basis.Value(coef, cMed, fLo);
         if (!(Math.Abs(swing) > 3 * rmsIndex))
             throw new MethodException(string.Create(CultureInfo.InvariantCulture,
-                $"The standards' index does not follow their [Fe/H]: over their range {fLo:F2} to {fHi:F2} dex the fitted index changes by {swing:F3} mag at colour {cMed:F2}, against a scatter of {rmsIndex:F3} mag about the fit. Check that the standards' [Fe/H] column is the right one and that they are matched to the right stars."));
+                $"The standards' index does not follow their [Fe/H]: over their range {fLo:F2} to {fHi:F2} dex the fitted index changes by {swing:F3} mag at colour {cMed:F2}, against a scatter of {rmsIndex:F3} mag about the fit (or more than half of them are wrong). Check that the standards' [Fe/H] column is the right one and that they are matched to the right stars."));
         // With most standards wrong the mixture cannot tell good from bad and settles on a broad relation instead: the accepted
         // standards then scatter by far more than any photometric calibration (robust sigma 1.4826 MAD above MaxScatterDex).
         var absDex = accepted.Select(i => Math.Abs(verdicts[i].ResidualDex)).Where(double.IsFinite).Order().ToArray();

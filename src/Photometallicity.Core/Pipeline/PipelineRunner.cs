@@ -63,11 +63,12 @@ public static class PipelineRunner
         else
         {
             standards = StandardsStep.Build(config, inputs, bra, bdec, photometry, log);
-            if (standards.Standards.Count < 5 && standards.Excluded.Count > 0)
+            int needed = config.Calibration.Monotone ? new MonotoneModelSpec(1, 0).Count + 2 : PolynomialBasis2D.CountFor(1) + 2;
+            if (standards.Standards.Count < needed && standards.Excluded.Count > 0)
             {
                 string why = string.Join("; ", standards.Excluded.GroupBy(e => e.Reason).OrderByDescending(g => g.Count()).ThenBy(g => g.Key, StringComparer.Ordinal)
                     .Take(3).Select(g => $"{g.Count()} x {g.Key}"));
-                throw new Errors.MethodException($"only {standards.Standards.Count} of {standards.Total} standards can enter the calibration (at least 5 are needed); left out before the fit: {why}. Check the standards' positions and match radius, and the narrow-band catalogue's positions.");
+                throw new Errors.MethodException($"only {standards.Standards.Count} of {standards.Total} standards can enter the calibration (at least {needed} are needed); left out before the fit: {why}. Check the standards' positions and match radius, and the narrow-band catalogue's positions.");
             }
             using (var p = progress?.For("calibration bootstrap"))
             {
