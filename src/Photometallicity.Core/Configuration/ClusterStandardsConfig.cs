@@ -64,7 +64,12 @@ public static partial class ConfigLoader
             var taken = new List<string>();
             if (centre is null) { centre = known.Centre; taken.Add("centre"); }
             if (feh is null) { feh = known.Feh; fehErr ??= DefaultClusterFehErr; taken.Add("[Fe/H]"); }
-            if (reddening is null) { reddening = new ReddeningConfig(null, known.Ebv, null, null); taken.Add("E(B-V)"); }
+            if (reddening is null)
+            {
+                if (double.IsNaN(known.Ebv))
+                    throw nameNode.Error($"cluster '{name}' ({known.Name}) has no E(B-V) in the cluster table {tablePath}; give \"reddening\" yourself");
+                reddening = new ReddeningConfig(null, known.Ebv, null, null); taken.Add("E(B-V)");
+            }
             source = $"{string.Join(", ", taken)} from {System.IO.Path.GetFileName(tablePath)} ({known.Name}{(known.Note.Length > 0 ? "; " + known.Note : "")})";
         }
         return new ClusterStandardConfig(s.Path, name, broad, narrow, centre.Value, radius, feh.Value, fehErr!.Value, reddening,
