@@ -6,7 +6,8 @@ namespace Photometallicity.Configuration;
 
 // The "kind": "cluster" entries of the "standards" list: a cluster field whose red-giant members share one
 // literature [Fe/H]. Centre, [Fe/H] and E(B-V) may be given, or are looked up by name in the reference cluster
-// table (calibration/globular_clusters.csv, or the entry's "cluster_table").
+// table (calibration/globular_clusters.csv: Harris 1996, AJ 112, 1487, 2010 edition; or the entry's "cluster_table"),
+// by name or alias with case and spaces ignored.
 public static partial class ConfigLoader
 {
     /// <summary>
