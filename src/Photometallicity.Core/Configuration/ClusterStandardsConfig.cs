@@ -6,7 +6,8 @@ namespace Photometallicity.Configuration;
 
 // The "kind": "cluster" entries of the "standards" list: a cluster field whose red-giant members share one
 // literature [Fe/H]. Centre, [Fe/H] and E(B-V) may be given, or are looked up by name in the reference cluster
-// table (calibration/globular_clusters.csv, or the entry's "cluster_table").
+// table (calibration/globular_clusters.csv: Harris 1996, AJ 112, 1487, 2010 edition; or the entry's "cluster_table"),
+// by name or alias with case and spaces ignored.
 public static partial class ConfigLoader
 {
     /// <summary>
@@ -64,7 +65,12 @@ public static partial class ConfigLoader
             var taken = new List<string>();
             if (centre is null) { centre = known.Centre; taken.Add("centre"); }
             if (feh is null) { feh = known.Feh; fehErr ??= DefaultClusterFehErr; taken.Add("[Fe/H]"); }
-            if (reddening is null) { reddening = new ReddeningConfig(null, known.Ebv, null, null); taken.Add("E(B-V)"); }
+            if (reddening is null)
+            {
+                if (double.IsNaN(known.Ebv))
+                    throw nameNode.Error($"cluster '{name}' ({known.Name}) has no E(B-V) in the cluster table {tablePath}; give \"reddening\" yourself");
+                reddening = new ReddeningConfig(null, known.Ebv, null, null); taken.Add("E(B-V)");
+            }
             source = $"{string.Join(", ", taken)} from {System.IO.Path.GetFileName(tablePath)} ({known.Name}{(known.Note.Length > 0 ? "; " + known.Note : "")})";
         }
         return new ClusterStandardConfig(s.Path, name, broad, narrow, centre.Value, radius, feh.Value, fehErr!.Value, reddening,

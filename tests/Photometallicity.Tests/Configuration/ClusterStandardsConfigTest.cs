@@ -56,6 +56,21 @@ public class ClusterStandardsConfigTest
         Assert.Equal(ConfigLoader.DefaultClusterFehErr, k.FehErr);
         Assert.Equal(row.Ebv, k.Reddening.Value);
         Assert.Contains("from globular_clusters.csv", k.Source);
+        // M 15 = NGC 7078 in Harris (1996, AJ 112, 1487; 2010 edition), part II: [Fe/H] -2.37, E(B-V) 0.10.
+        Assert.Equal((-2.37, 0.10), (k.Feh, k.Reddening.Value!.Value));
+        Assert.Contains("(NGC 7078; Harris 1996 (2010 edition)", k.Source);
+    }
+
+    [Fact]
+    public void Load_ClusterFromAUserTableWithoutEbv_AsksForTheReddening()
+    {
+        using var dir = new TempDir();
+        File.WriteAllText(dir.File("mine.csv"), "# invented clusters\nname,ra_deg,dec_deg,feh,ebv\nInvented B,100.0,5.0,-1.1,\n");
+        string p = WriteConfig(dir, $$"""{ "kind": "cluster", "name": "Invented B", {{Pair}}, "radius_arcmin": 2, "cluster_table": "mine.csv" }""");
+        var e = Assert.Throws<InputException>(() => ConfigLoader.Load(p));
+        Assert.Contains("config key 'standards[1].name': cluster 'Invented B' (Invented B) has no E(B-V) in the cluster table", e.Message);
+        var ok = ConfigLoader.Load(WriteConfig(dir, $$"""{ "kind": "cluster", "name": "Invented B", {{Pair}}, "radius_arcmin": 2, "cluster_table": "mine.csv", "reddening": { "value": 0.2 } }"""));
+        Assert.Equal(0.2, Assert.Single(ok.ClusterStandards).Reddening.Value);
     }
 
     [Fact]
