@@ -63,11 +63,15 @@ public static class CalibrationFitter
         {
             if (!options.Monotone) { specs.Add(new PolynomialModelSpec(d)); continue; }
             foreach (int k in options.Knots is { } fk ? [fk] : Enumerable.Range(0, options.MaxKnots + 1))
-                specs.Add(new MonotoneModelSpec(d, k));
+            {
+                specs.Add(new SeparableModelSpec(d, k));
+                if (!options.SeparableOnly) specs.Add(new MonotoneModelSpec(d, k));
+            }
         }
         var choice = ModelChoice.Run(data, idx, fold, folds, specs, options.Outliers, logger);
         var spec = choice.Chosen.Spec;
         var basis = choice.Chosen.Basis!;
+        if (basis is SeparableBasis sep) basis = SeparableModelSpec.Profile(data, Enumerable.Repeat(1.0, n).ToArray(), options.Outliers, sep);
         int np = basis.Count;
 
         // 3. Best fit.
@@ -140,7 +144,7 @@ public static class CalibrationFitter
         var extra = ExtrapolationCalibrator.Run(data, accepted.ToArray(), spec, options.Outliers);
         var notes = new List<string>
         {
-            string.Create(CultureInfo.InvariantCulture, $"model-form error beyond the standards: {extra.KappaColour:F3} mag of index per mag of colour (from {extra.HeldOutColour} held-out standards across the bluest and reddest gaps), sensitivity uncertain by a factor e^{extra.KappaFeh:F3} beyond their [Fe/H] (from {extra.HeldOutFeh} held-out standards)"),
+            string.Create(CultureInfo.InvariantCulture, $"model-form error beyond the standards: {extra.KappaColour:F3} d + {extra.KappaColour2:F3} d^2 mag of index at colour distance d (from {extra.HeldOutColour} held-out standards across the bluest and reddest gaps, one and two fifths wide), sensitivity uncertain by a factor e^{extra.KappaFeh:F3} beyond their [Fe/H] (from {extra.HeldOutFeh} held-out standards)"),
         };
         if (extra.Note.Length > 0) notes.Add(extra.Note);
         foreach (var note in notes) logger.LogInformation("calibration: {Note}", note);
@@ -157,7 +161,7 @@ public static class CalibrationFitter
             draws[m] = [rng.NextGaussian(0, 1), rng.NextGaussian(0, 1), rng.NextGaussian(0, 1), rng.NextGaussian(0, 1)];
         }
         var acc = accepted.ToArray();
-        var extrapolation = new Extrapolation(domain, extra.KappaColour, extra.KappaFeh, draws);
+        var extrapolation = new Extrapolation(domain, extra.KappaColour, extra.KappaFeh, draws) { KappaColour2 = extra.KappaColour2 };
 
         var provenance = new SortedDictionary<string, string>(StringComparer.Ordinal);
         if (options.Provenance is not null) foreach (var kv in options.Provenance) provenance[kv.Key] = kv.Value;
@@ -190,7 +194,7 @@ public static class CalibrationFitter
             Model = model,
             PerStandard = verdicts,
             CvScores = choice.All.Select(c => new FormScore(c.Spec.ToString(), c.Spec.Count, c.Score, c.StandardError, c.Failure)).ToArray(),
-            Degree = spec is MonotoneModelSpec ms ? ms.ColourDegree : ((PolynomialModelSpec)spec).Degree,
+            Degree = spec switch { MonotoneModelSpec ms => ms.ColourDegree, SeparableModelSpec ss => ss.ColourDegree, _ => ((PolynomialModelSpec)spec).Degree },
             DegreeReason = choice.Reason,
             CvRmsIndex = cvRmsIndex,
             CvRmsDex = cvRmsDex,
@@ -205,9 +209,9 @@ public static class CalibrationFitter
 
     private static void RequireCoverage(CalibrationStandards s, int[] idx, int n, CalibrationOptions options)
     {
-        int p1 = options.Monotone ? new MonotoneModelSpec(1, 0).Count : PolynomialBasis2D.CountFor(1); // the simplest form
+        int p1 = options.Monotone ? new SeparableModelSpec(1, 0).Count : PolynomialBasis2D.CountFor(1); // the simplest form
         if (idx.Length < p1 + 2)
-            throw new MethodException($"{idx.Length} usable calibration standards of {n} given; the simplest model (colour degree 1, no interior knot) has {p1} coefficients and needs at least {p1 + 2} standards.");
+            throw new MethodException($"{idx.Length} usable calibration standards of {n} given; the simplest model (separable, colour degree 1, no interior knot) has {p1} coefficients and needs at least {p1 + 2} standards.");
         double cmin = idx.Min(i => s.Colour0[i]), cmax = idx.Max(i => s.Colour0[i]);
         if (cmax - cmin < MinColourSpread)
             throw new MethodException($"The {idx.Length} usable standards are all one colour: C0 spans {cmin:F3} to {cmax:F3} mag ({cmax - cmin:F3} mag < {MinColourSpread} mag needed). Add standards of other colours.");

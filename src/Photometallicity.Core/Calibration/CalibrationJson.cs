@@ -59,6 +59,17 @@ public static class CalibrationJson
                 Num(w, "feh_hi", b.Ramps.Hi);
                 Arr(w, "feh_knots", b.Ramps.Knots);
                 break;
+            case SeparableBasis b:
+                w.WriteString("kind", "separable");
+                w.WriteString("form", "index0 = sum_a p_a u^a + a(t) sum_j w_j I_j([Fe/H]), a(t) = 1 + gamma t (exponential continuation from the edges outside [0, 1]), t = (colour0 - colour_lo) / (colour_hi - colour_lo), u = 2 t - 1 (tangent continuation outside [-1, 1]); I_j quadratic I-splines on the knots [feh_lo x3, feh_knots, feh_hi x3] (Ramsay 1988), tangent continuation outside [feh_lo, feh_hi]; coefficients in the order p_0..p_d, w_1..w_J");
+                w.WriteNumber("colour_degree", b.ColourDegree);
+                Num(w, "colour_lo", b.ColourLo);
+                Num(w, "colour_hi", b.ColourHi);
+                Num(w, "feh_lo", b.Ramps.Lo);
+                Num(w, "feh_hi", b.Ramps.Hi);
+                Arr(w, "feh_knots", b.Ramps.Knots);
+                Num(w, "gamma", b.Gamma);
+                break;
             default:
                 throw new InvalidOperationException($"no file form for the model {model.Basis.Describe}");
         }
@@ -74,10 +85,11 @@ public static class CalibrationJson
         if (model.Extrapolation is { } x)
         {
             w.WriteStartObject("extrapolation");
-            w.WriteString("form", "the support is domain.hull (support_colour and support_feh are its bounding box); beyond it a star's index variance grows by the smaller of (kappa_colour * d_colour)^2 and (kappa_feh * (f(F) - f(F_edge)))^2; ensemble member m's draw moves its index by kappa_colour * d_colour * z[m][0 blue | 1 red] beyond the standards' colours and scales its change beyond the hull's [Fe/H] by exp(kappa_feh * z[m][2 metal-poor | 3 metal-rich])");
+            w.WriteString("form", "the support is domain.hull (support_colour and support_feh are its bounding box); beyond it a star's index variance grows by the smaller of (kappa_colour * d_colour + kappa_colour2 * d_colour^2)^2 and (kappa_feh * (f(F) - f(F_edge)))^2; ensemble member m's draw moves its index by (kappa_colour * d_colour + kappa_colour2 * d_colour^2) * z[m][0 blue | 1 red] beyond the standards' colours and scales its change beyond the hull's [Fe/H] by exp(kappa_feh * z[m][2 metal-poor | 3 metal-rich])");
             Arr(w, "support_colour", [x.ColourLo, x.ColourHi]);
             Arr(w, "support_feh", [x.FehLo, x.FehHi]);
             Num(w, "kappa_colour", x.KappaColour);
+            Num(w, "kappa_colour2", x.KappaColour2);
             Num(w, "kappa_feh", x.KappaFeh);
             w.WriteStartArray("z");
             foreach (var z in x.Z) { w.WriteStartArray(); foreach (var v in z) Val(w, v); w.WriteEndArray(); }

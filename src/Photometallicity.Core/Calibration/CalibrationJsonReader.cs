@@ -56,7 +56,7 @@ public static class CalibrationJsonReader
             if (!(fs > 0)) throw r.Error("model.feh_scale", "must be positive");
             basis = new PolynomialBasis2D(degree, r.Dbl(mo, "colour_centre", "model"), cs, r.Dbl(mo, "feh_centre", "model"), fs);
         }
-        else if (kind == "monotone")
+        else if (kind is "monotone" or "separable")
         {
             int cd = r.Int(mo, "colour_degree", "model");
             if (cd < 1 || cd > 3) throw r.Error("model.colour_degree", $"{cd} is outside [1, 3]");
@@ -68,9 +68,16 @@ public static class CalibrationJsonReader
             var knots = r.DoubleArray(knotsEl, "model.feh_knots", knotsEl.GetArrayLength());
             for (int k = 0; k < knots.Length; k++)
                 if (!(knots[k] > (k == 0 ? fLo : knots[k - 1]) && knots[k] < fHi)) throw r.Error($"model.feh_knots[{k}]", "knots must increase strictly inside (feh_lo, feh_hi)");
-            basis = new MonotoneBasis(cd, cLo, cHi, new MonotoneRamps(fLo, fHi, knots));
+            var ramps = new MonotoneRamps(fLo, fHi, knots);
+            if (kind == "monotone") basis = new MonotoneBasis(cd, cLo, cHi, ramps);
+            else
+            {
+                double gamma = r.Dbl(mo, "gamma", "model");
+                if (!(gamma > -1)) throw r.Error("model.gamma", "must be above -1 (the amplitude ratio 1 + gamma must be positive)");
+                basis = new SeparableBasis(cd, cLo, cHi, ramps, gamma);
+            }
         }
-        else throw r.Error("model.kind", $"\"{kind}\" is not a model kind (known: polynomial, monotone)");
+        else throw r.Error("model.kind", $"\"{kind}\" is not a model kind (known: polynomial, monotone, separable)");
         int p = basis.Count;
         var coef = r.Doubles(mo, "coefficients", "model", p);
         var cov = r.Doubles(mo, "coefficient_covariance", "model", p * p);
@@ -113,7 +120,9 @@ public static class CalibrationJsonReader
             var z = new double[ens.Length][];
             int zi = 0;
             foreach (var row in za.EnumerateArray()) { z[zi] = r.DoubleArray(row, $"extrapolation.z[{zi}]", 4); zi++; }
-            extra = new Extrapolation(new ValidityDomain(hull, []), kc, kf, z); // the support is the domain's hull; support_colour/_feh are its box, for reading
+            double kc2 = xo.TryGetProperty("kappa_colour2", out _) ? r.Dbl(xo, "kappa_colour2", "extrapolation") : 0.0;
+            if (!(kc2 >= 0)) throw r.Error("extrapolation.kappa_colour2", "must not be negative");
+            extra = new Extrapolation(new ValidityDomain(hull, []), kc, kf, z) { KappaColour2 = kc2 }; // the support is the domain's hull; support_colour/_feh are its box, for reading
         }
 
         var prov = new SortedDictionary<string, string>(StringComparer.Ordinal);

@@ -28,6 +28,12 @@ public sealed record CalibrationOptions
     /// </summary>
     public bool Monotone { get; init; } = true;
 
+    /// <summary>
+    /// Only the separable form (a shared [Fe/H] shape whose amplitude changes with colour, <see cref="SeparableBasis"/>); false
+    /// (default) lets cross-validation also try the form whose shape may change with colour (<see cref="MonotoneBasis"/>).
+    /// </summary>
+    public bool SeparableOnly { get; init; }
+
     /// <summary>Fit an outlier component (default); false gives the plain effective-variance likelihood, every standard good.</summary>
     public bool Outliers { get; init; } = true;
 

@@ -16,6 +16,12 @@ namespace Photometallicity.Calibration;
 /// </summary>
 public sealed record Extrapolation(ValidityDomain Support, double KappaColour, double KappaFeh, double[][] Z)
 {
+    /// <summary>Quadratic term of the colour error: beyond the hull the index is uncertain by KappaColour d + KappaColour2 d^2 (mag).</summary>
+    public double KappaColour2 { get; init; }
+
+    /// <summary>The colour route's index error (mag) at colour distance d (mag).</summary>
+    public double ColourError(double d) => KappaColour * Math.Abs(d) + KappaColour2 * d * d;
+
     public double ColourLo => Support.ColourMin;
     public double ColourHi => Support.ColourMax;
     public double FehLo => Support.FehMin;
@@ -47,7 +53,7 @@ public sealed record Extrapolation(ValidityDomain Support, double KappaColour, d
     /// </summary>
     public double ModelFormVariance(IndexSlice best, double colour, double feh)
     {
-        double d = ColourDistance(colour, feh), vc = KappaColour * KappaColour * d * d;
+        double d = ColourDistance(colour, feh), ec = ColourError(d), vc = ec * ec;
         if (colour < ColourLo || colour > ColourHi) return vc; // beyond every standard's colour: only the colour route exists
         var (lo, hi) = FehEdges(colour);
         double vf = 0;
@@ -67,8 +73,8 @@ public sealed record Extrapolation(ValidityDomain Support, double KappaColour, d
         // The colour offset is taken at the hull's colour span for this colour's [Fe/H] edges (the draw's colour part does not
         // vary with [Fe/H], so the member stays monotonic in [Fe/H]).
         double d = colour < ColourLo ? colour - ColourLo : colour > ColourHi ? colour - ColourHi : 0.0;
-        double offset = d < 0 ? KappaColour * -d * z[0] : KappaColour * d * z[1];
-        double dOffset = d < 0 ? -KappaColour * z[0] : d > 0 ? KappaColour * z[1] : 0.0;
+        double offset = ColourError(d) * (d < 0 ? z[0] : z[1]);
+        double dOffset = d < 0 ? -(KappaColour + 2 * KappaColour2 * -d) * z[0] : d > 0 ? (KappaColour + 2 * KappaColour2 * d) * z[1] : 0.0;
         var (lo, hi) = FehEdges(colour);
         return new Perturbed(s, offset, dOffset, lo, hi, Math.Exp(KappaFeh * z[2]), Math.Exp(KappaFeh * z[3]));
     }

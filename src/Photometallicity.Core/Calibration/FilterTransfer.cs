@@ -140,6 +140,9 @@ public static class FilterTransfer
             PolynomialBasis2D pb => new PolynomialBasis2D(pb.Degree, t.NewColour(pb.ColourCentre), pb.ColourScale / Math.Abs(t.A1), pb.FehCentre, pb.FehScale),
             MonotoneBasis mb => new MonotoneBasis(mb.ColourDegree, Math.Min(t.NewColour(mb.ColourLo), t.NewColour(mb.ColourHi)),
                 Math.Max(t.NewColour(mb.ColourLo), t.NewColour(mb.ColourHi)), mb.Ramps),
+            // t flips when a1 < 0: a(t) = 1 + g t becomes (1 + g)(1 + g' t') with g' = -g / (1 + g); the refit absorbs the factor.
+            SeparableBasis sb => new SeparableBasis(sb.ColourDegree, Math.Min(t.NewColour(sb.ColourLo), t.NewColour(sb.ColourHi)),
+                Math.Max(t.NewColour(sb.ColourLo), t.NewColour(sb.ColourHi)), sb.Ramps, t.A1 > 0 ? sb.Gamma : -sb.Gamma / (1 + sb.Gamma)),
             _ => throw new MethodException($"a calibration of the form \"{ob.Describe}\" cannot be transferred"),
         };
         int p = nb.Count;
@@ -226,6 +229,6 @@ public static class FilterTransfer
     private static Extrapolation MapExtrapolation(Extrapolation x, FilterTransform t, ValidityDomain newHull)
     {
         var z = t.A1 > 0 ? x.Z : x.Z.Select(v => new[] { v[1], v[0], v[2], v[3] }).ToArray();
-        return x with { Support = newHull, KappaColour = x.KappaColour * Math.Abs(t.A1) / Math.Abs(t.B1), Z = z };
+        return x with { Support = newHull, KappaColour = x.KappaColour * Math.Abs(t.A1) / Math.Abs(t.B1), KappaColour2 = x.KappaColour2 * t.A1 * t.A1 / Math.Abs(t.B1), Z = z };
     }
 }

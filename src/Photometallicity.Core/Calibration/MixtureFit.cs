@@ -160,6 +160,7 @@ internal sealed class MixtureFit
     /// <summary>The final fit with every standard either kept (q = 1) or left out (q = 0) by its EM outlier probability.</summary>
     private string? HardPass()
     {
+        MixtureLogLikelihood = MixtureLogLikelihoodNow();
         foreach (int i in _rows) _pOut[i] = 1 - _q[i];
         foreach (int i in _rows) _q[i] = _w[i] > 0 && _pOut[i] <= 0.5 ? 1.0 : 0.0;
         for (int pass = 0; pass < 6; pass++)
@@ -174,6 +175,23 @@ internal sealed class MixtureFit
         }
         Refresh();
         return null;
+    }
+
+    /// <summary>sum_i m_i ln L_i of the mixture when EM settled (before the final hard pass): the objective the fit maximised.</summary>
+    public double MixtureLogLikelihood { get; private set; }
+
+    private double MixtureLogLikelihoodNow()
+    {
+        Refresh();
+        double s2 = SigmaInt * SigmaInt, sum = 0;
+        foreach (int i in _rows)
+        {
+            if (_w[i] <= 0) continue;
+            double v = _baseVar[i] + s2, vb = v + _broad[i], r2 = _resid[i] * _resid[i];
+            double l = (1 - OutlierFraction) * Math.Exp(-0.5 * r2 / v) / Math.Sqrt(2 * Math.PI * v) + OutlierFraction * Math.Exp(-0.5 * r2 / vb) / Math.Sqrt(2 * Math.PI * vb);
+            sum += _w[i] * Math.Log(Math.Max(l, 1e-300));
+        }
+        return sum;
     }
 
     /// <summary>A starting point for <see cref="Fit"/>.</summary>

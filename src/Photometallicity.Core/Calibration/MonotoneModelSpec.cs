@@ -67,3 +67,36 @@ public sealed record PolynomialModelSpec(int Degree) : ModelSpec
         return new PolynomialBasis2D(Degree, 0.5 * (cmin + cmax), 0.5 * (cmax - cmin), 0.5 * (fmin + fmax), 0.5 * (fmax - fmin));
     }
 }
+
+/// <summary>
+/// The separable monotone model (<see cref="SeparableBasis"/>): colour degree and interior knots as <see cref="MonotoneModelSpec"/>,
+/// plus the amplitude's colour slope Gamma, found by profile likelihood (<see cref="Profile"/>). It counts Gamma among its parameters.
+/// </summary>
+public sealed record SeparableModelSpec(int ColourDegree, int InteriorKnots) : ModelSpec
+{
+    public override int Count => ColourDegree + 1 + InteriorKnots + 2 + 1;
+
+    public override string ToString() => string.Create(CultureInfo.InvariantCulture, $"separable, colour degree {ColourDegree}, {InteriorKnots} knot{(InteriorKnots == 1 ? "" : "s")}");
+
+    public override IIndexBasis? Build(IReadOnlyList<double> colour, IReadOnlyList<double> feh) =>
+        new MonotoneModelSpec(ColourDegree, InteriorKnots).Build(colour, feh) is MonotoneBasis m ? new SeparableBasis(ColourDegree, m.ColourLo, m.ColourHi, m.Ramps, 0.0) : null;
+
+    /// <summary>Bounds of ln(1 + Gamma), the log of the amplitude ratio between the reddest and bluest standards (project choice: a factor 20 either way).</summary>
+    public const double LnRatioMax = 3.0;
+
+    /// <summary>
+    /// The basis at the Gamma that maximises the mixture likelihood of the standards with multiplicity <paramref name="weight"/>
+    /// (Brent on ln(1 + Gamma) in [-3, 3], tolerance 0.005; each evaluation a full mixture fit at that Gamma).
+    /// </summary>
+    internal static SeparableBasis Profile(FitData d, ReadOnlySpan<double> weight, bool outliers, SeparableBasis start)
+    {
+        var w = weight.ToArray();
+        double Objective(double lnRatio)
+        {
+            var fit = new MixtureFit(d, start.WithGamma(Math.Exp(lnRatio) - 1), outliers);
+            return fit.Fit(w) is null ? -fit.MixtureLogLikelihood : double.PositiveInfinity;
+        }
+        double best = BrentMinimizer.Minimize(static (f, x) => f(x), (Func<double, double>)Objective, -LnRatioMax, LnRatioMax, 0.005);
+        return start.WithGamma(Math.Exp(best) - 1);
+    }
+}

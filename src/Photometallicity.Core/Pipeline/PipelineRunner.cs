@@ -63,7 +63,7 @@ public static class PipelineRunner
         else
         {
             standards = StandardsStep.Build(config, inputs, bra, bdec, photometry, log);
-            int needed = config.Calibration.Monotone ? new MonotoneModelSpec(1, 0).Count + 2 : PolynomialBasis2D.CountFor(1) + 2;
+            int needed = config.Calibration.Monotone ? new SeparableModelSpec(1, 0).Count + 2 : PolynomialBasis2D.CountFor(1) + 2;
             if (standards.Standards.Count < needed && standards.Excluded.Count > 0)
             {
                 string why = string.Join("; ", standards.Excluded.GroupBy(e => e.Reason).OrderByDescending(g => g.Count()).ThenBy(g => g.Key, StringComparer.Ordinal)

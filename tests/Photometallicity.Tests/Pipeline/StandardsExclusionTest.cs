@@ -27,7 +27,7 @@ public class StandardsExclusionTest
         var r = CliRun.Invoke("run", dir.File("config.json"), "--out", dir.File("out"));
         Assert.Equal(2, r.ExitCode);
         Assert.Contains("error: only 0 of ", r.Error);
-        Assert.Contains("standards can enter the calibration (at least 8 are needed); left out before the fit: ", r.Error);
+        Assert.Contains("standards can enter the calibration (at least 7 are needed); left out before the fit: ", r.Error);
         Assert.Contains(" x photometry not usable (no_narrow_match)", r.Error);
         Assert.False(Directory.Exists(dir.File("out")) && Directory.EnumerateFiles(dir.File("out"), "*", SearchOption.AllDirectories).Any());
     }
@@ -36,7 +36,7 @@ public class StandardsExclusionTest
     [Theory]
     [InlineData("one_feh", "all one [Fe/H]")]
     [InlineData("mostly_wrong", "more than half")]
-    [InlineData("three", "needs at least 8 standards")]
+    [InlineData("three", "needs at least 7 standards")]
     public void Run_DegenerateStandards_ExitTwoNamingWhyAndWriteNothing(string kind, string message)
     {
         using var dir = new TempDir();
