@@ -66,3 +66,28 @@ public class ValidationScoringTest
         Assert.Equal(2, ValidationReport.Failures(f with { Bins = [(bins[1], good)], StandardsBadFlagged = 7, StandardsGoodFlagged = 3 }).Count);
     }
 }
+
+/// <summary>Which standards count as flagged, on hand-made residual and standards tables.</summary>
+public class ValidationStandardsFlagsTest
+{
+    [Fact]
+    public void StandardsFlags_StatusOrOutlierProbability_ExcludedLeftOut_ClusterForegroundIsBad()
+    {
+        using var dir = new Photometallicity.Tests.Support.TempDir();
+        Directory.CreateDirectory(dir.File("out"));
+        File.WriteAllText(dir.File("standards.csv"), "name,FeH,truth_bad\nS1,-1,0\nS2,-1,0\nS3,-1,1\nS4,-1,1\nS5,-1,1\nS6,-1,0\n");
+        File.WriteAllText(dir.File(Path.Combine("out", "calibration_residuals.csv")),
+            "id,status,reason,p_outlier\n" +
+            "S1,accepted,accepted,0.1\n" +      // good, not flagged
+            "S2,accepted,accepted,0.7\n" +      // good, flagged by p_outlier
+            "S3,outlier,outlier,0.2\n" +        // bad, flagged by status
+            "S4,accepted,accepted,0.9\n" +      // bad, flagged by p_outlier
+            "S5,accepted,accepted,0.4\n" +      // bad, missed
+            "S6,excluded,no counterpart,\n" +   // never entered: not counted
+            "Q (invented):CM0001,accepted,accepted,0.0\n" +  // cluster member: good
+            "Q (invented):CF0150,outlier,outlier,0.0\n");    // cluster foreground: bad, flagged
+        var vt = new System.Text.Json.Nodes.JsonObject { ["standards_id_column"] = "name" };
+        var (bad, badFlagged, good, goodFlagged) = FieldScorer.StandardsFlags(dir.Path, dir.File("out"), vt);
+        Assert.Equal((4, 3, 3, 1), (bad, badFlagged, good, goodFlagged));
+    }
+}
