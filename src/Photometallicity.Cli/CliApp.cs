@@ -42,5 +42,6 @@ public static class CliApp
         yield return TileCommand.Create(ctx);
         yield return MergeCommand.Create(ctx);
         yield return BatchCommand.Create(ctx);
+        yield return ValidateCommand.Create(ctx);
     }
 }

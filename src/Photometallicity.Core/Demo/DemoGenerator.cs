@@ -15,8 +15,13 @@ namespace Photometallicity.Demo;
 /// </summary>
 public static class DemoGenerator
 {
-    public static DemoField Generate(int stars, ulong seed, DemoTruth? truth = null)
+    /// <summary>
+    /// Generates the field. <paramref name="variant"/> null is the demo field itself (byte for byte as it has always been);
+    /// a variant changes the index law and the standards and adds truth columns (see <see cref="DemoVariant"/>).
+    /// </summary>
+    public static DemoField Generate(int stars, ulong seed, DemoTruth? truth = null, DemoVariant? variant = null)
     {
+        var giantIndex = variant?.GiantIndex ?? DemoTruth.GiantIndex;
         if (stars < 500) throw new ArgumentOutOfRangeException(nameof(stars), stars, "the demo field needs at least 500 stars");
         truth ??= DemoTruth.ForStars(stars);
         var rng = Seeds.For(seed, "demo-field");
@@ -39,6 +44,8 @@ public static class DemoGenerator
         var colourTrue = new double[stars];
         var indexTrue = new double[stars];
         var narrowTrue = new double[stars];
+        var blueTrue = new double[stars];
+        var redTrue = new double[stars];
 
         for (int i = 0; i < stars; i++)
         {
@@ -62,14 +69,14 @@ public static class DemoGenerator
                 double absB = SampleExponential(rng, -2.6, 2.8, 0.3 * Math.Log(10)); // luminosity function rising to faint mags, invented
                 blue0 = absB + truth.DistanceModulus;
                 c0 = DemoTruth.GiantColour(absB, feh) + rng.NextGaussian(0, 0.015);
-                x0 = DemoTruth.GiantIndex(c0, feh) + rng.NextGaussian(0, truth.IntrinsicIndexScatter);
+                x0 = giantIndex(c0, feh) + rng.NextGaussian(0, truth.IntrinsicIndexScatter);
             }
             else
             {
                 feh = Math.Clamp(rng.NextGaussian(-0.7, 0.45), -2.5, 0.4); // invented foreground disc/halo mix
                 blue0 = SampleExponential(rng, 17.5, 25.3, 0.25);
                 c0 = Math.Clamp(rng.NextGaussian(1.05, 0.38), 0.35, 2.6);
-                x0 = DemoTruth.GiantIndex(c0, feh) + truth.DwarfIndexOffset + rng.NextGaussian(0, 0.03);
+                x0 = giantIndex(c0, feh) + truth.DwarfIndexOffset + rng.NextGaussian(0, 0.03);
             }
             fehTrue[i] = feh;
             colourTrue[i] = c0;
@@ -80,17 +87,20 @@ public static class DemoGenerator
             double narrow0 = blue0 + x0 + truth.ColourCoefficient * c0;
             double bt = blue0 + coef[0] * e, rt = red0 + coef[1] * e;
             narrowTrue[i] = narrow0 + coef[2] * e;
+            blueTrue[i] = blue0;
+            redTrue[i] = red0;
             be[i] = errB.Sigma(bt);
             re[i] = errR.Sigma(rt);
             b[i] = bt + rng.NextGaussian(0, be[i]);
             r[i] = rt + rng.NextGaussian(0, re[i]);
             ra[i] += rng.NextGaussian(0, 0.03) / 3600.0 / Math.Cos(dec[i] * Math.PI / 180);
             dec[i] += rng.NextGaussian(0, 0.03) / 3600.0;
+            ra[i] = WrapRa(ra[i]); // only a field straddling RA = 0/360 can leave [0, 360) here
         }
 
         var broad = new Table(stars, "broad.csv");
         broad.Add(new Column<string>("src", id, description: "broadband source id"));
-        broad.Add(new Column<double>("ra", Round(ra, 7), unit: "deg"));
+        broad.Add(new Column<double>("ra", WrapAll(Round(ra, 7)), unit: "deg"));
         broad.Add(new Column<double>("dec", Round(dec, 7), unit: "deg"));
         var rMissing = new bool[stars];
         for (int i = 0; i < stars; i++)
@@ -101,8 +111,11 @@ public static class DemoGenerator
         broad.Add(new Column<double>("r770_err", Round(re, 4), unit: "mag"));
         broad.Add(new Column<double>("ebv", ebv, unit: "mag"));
 
-        var narrow = MakeNarrow(rng, truth, tangent, ra, dec, narrowTrue, errN);
-        var standards = MakeStandards(rng, id, ra, dec, b, member, fehTrue, colourTrue);
+        var detected = new bool[stars];
+        var narrow = MakeNarrow(rng, truth, tangent, ra, dec, narrowTrue, errN, detected);
+        var standards = variant is null
+            ? MakeStandards(rng, id, ra, dec, b, member, fehTrue, colourTrue)
+            : VariantStandards.Make(Seeds.For(seed, DemoVariant.StandardsStream), variant, truth, id, ra, dec, member, fehTrue, redTrue, detected);
 
         var starTruth = new Table(stars, "truth_stars.csv");
         starTruth.Add(new Column<string>("src", id));
@@ -110,10 +123,19 @@ public static class DemoGenerator
         starTruth.Add(new Column<double>("feh_true", Round(fehTrue, 4), unit: "dex"));
         starTruth.Add(new Column<double>("colour0_true", Round(colourTrue, 4), unit: "mag"));
         starTruth.Add(new Column<double>("index0_true", Round(indexTrue, 4), unit: "mag"));
+        if (variant is not null)
+        {
+            var snr = new double[stars];
+            for (int i = 0; i < stars; i++) snr[i] = Math.Round(errN.SignalToNoise(narrowTrue[i]), 2);
+            starTruth.Add(new Column<double>("blue0_true", Round(blueTrue, 4), unit: "mag"));
+            starTruth.Add(new Column<double>("red0_true", Round(redTrue, 4), unit: "mag"));
+            starTruth.Add(new Column<double>("narrow_snr_true", snr, description: "narrow-band S/N at the true magnitude"));
+            starTruth.Add(new Column<bool>("narrow_detected", detected, description: "the star is in the narrow-band catalogue"));
+        }
         return new DemoField(broad, narrow, standards, starTruth, truth);
     }
 
-    private static Table MakeNarrow(Rng rng, DemoTruth truth, TangentPlane tangent, double[] ra, double[] dec, double[] narrowTrue, PhotometricErrorModel errN)
+    private static Table MakeNarrow(Rng rng, DemoTruth truth, TangentPlane tangent, double[] ra, double[] dec, double[] narrowTrue, PhotometricErrorModel errN, bool[] detected)
     {
         var rows = new List<(double Ra, double Dec, double Mag, double Err)>();
         for (int i = 0; i < ra.Length; i++)
@@ -121,11 +143,12 @@ public static class DemoGenerator
             double m = narrowTrue[i];
             double pDetect = 1.0 / (1.0 + Math.Exp((m - (truth.NarrowDepth5 + 0.2)) / 0.15)); // completeness roll-off, invented
             if (rng.NextDouble() >= pDetect) continue;
+            detected[i] = true;
             double err = errN.Sigma(m);
             double cosd = Math.Cos(dec[i] * Math.PI / 180);
             double nra = ra[i] + (truth.OffsetRaCosDecArcsec + rng.NextGaussian(0, 0.05)) / 3600.0 / cosd;
             double ndec = dec[i] + (truth.OffsetDecArcsec + rng.NextGaussian(0, 0.05)) / 3600.0;
-            rows.Add((nra, ndec, m + rng.NextGaussian(0, err), err));
+            rows.Add((WrapRa(nra), ndec, m + rng.NextGaussian(0, err), err));
         }
         int spurious = Math.Max(5, rows.Count / 50); // 2% spurious detections (cosmic rays, artefacts), invented
         for (int s = 0; s < spurious; s++)
@@ -143,7 +166,7 @@ public static class DemoGenerator
         }
         var t = new Table(rows.Count, "narrow.csv");
         t.Add(new Column<string>("nid", rows.Select((_, k) => $"N{k + 1:D6}").ToArray(), description: "narrow-band source id"));
-        t.Add(new Column<double>("ra", Round(rows.Select(x => x.Ra).ToArray(), 7), unit: "deg"));
+        t.Add(new Column<double>("ra", WrapAll(Round(rows.Select(x => x.Ra).ToArray(), 7)), unit: "deg"));
         t.Add(new Column<double>("dec", Round(rows.Select(x => x.Dec).ToArray(), 7), unit: "deg"));
         t.Add(new Column<double>("n395", Round(rows.Select(x => x.Mag).ToArray(), 4), unit: "mag"));
         t.Add(new Column<double>("n395_err", Round(rows.Select(x => x.Err).ToArray(), 4), unit: "mag"));
@@ -215,7 +238,17 @@ public static class DemoGenerator
         return Math.Log(ea + u * (eb - ea)) / b;
     }
 
-    private static double[] Round(double[] v, int digits)
+    /// <summary>RA into [0, 360); values already inside are returned untouched (bit for bit).</summary>
+    internal static double WrapRa(double ra) => ra < 0 ? ra + 360 : ra >= 360 ? ra - 360 : ra;
+
+    /// <summary>Every RA into [0, 360) (a value rounded up to 360 becomes 0); values inside are untouched.</summary>
+    internal static double[] WrapAll(double[] ra)
+    {
+        for (int i = 0; i < ra.Length; i++) ra[i] = WrapRa(ra[i]);
+        return ra;
+    }
+
+    internal static double[] Round(double[] v, int digits)
     {
         for (int i = 0; i < v.Length; i++) v[i] = Math.Round(v[i], digits);
         return v;
