@@ -34,7 +34,8 @@ public class DwarfBranchTest
         int count = 0;
         for (int i = 0; i < rows.Count; i++)
         {
-            if (member[i] || !double.IsFinite(rows.Feh[i]) || !double.IsFinite(rows.FehDwarf![i])) continue;
+            // Compared where the dwarf standards are (colours 0.6-1.3): farther out both branches only extrapolate.
+            if (member[i] || colour[i] < 0.6 || colour[i] > 1.3 || !double.IsFinite(rows.Feh[i]) || !double.IsFinite(rows.FehDwarf![i])) continue;
             giantErr += Math.Abs(rows.Feh[i] - fehTrue[i]);
             dwarfErr += Math.Abs(rows.FehDwarf[i] - fehTrue[i]);
             count++;
