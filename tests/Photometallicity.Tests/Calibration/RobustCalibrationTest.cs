@@ -60,6 +60,7 @@ public class RobustCalibrationTest
         for (int i = 0; i < 60; i++) st.Feh[i] = -3.0 + 2.8 * rng.NextDouble(); // the [Fe/H] column has nothing to do with the stars
         var e = Assert.Throws<MethodException>(() => CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0)));
         Assert.Contains("does not follow", e.Message);
+        Assert.Contains("more than half", e.Message);
     }
 
     /// <summary>
