@@ -24,7 +24,10 @@ public sealed record CalibrationResult
     public double CvRmsIndex { get; init; }
     public double CvRmsDex { get; init; }
 
-    /// <summary>Maximum-likelihood sigma_int (mag); the model carries the posterior mean of sigma_int^2 instead (see MixtureFit.PosteriorMeanSigmaInt2).</summary>
+    /// <summary>
+    /// Maximum-likelihood sigma_int (mag) of the kept standards, corrected for the degrees of freedom the coefficients take; the
+    /// model carries the posterior mean of sigma_int^2 instead (see MixtureFit.PosteriorMeanSigmaInt2).
+    /// </summary>
     public double SigmaIntMaximumLikelihood { get; init; }
 
     /// <summary>Fitted share of bad standards (the outlier component's weight).</summary>

@@ -11,7 +11,10 @@ internal sealed class FitData
         N = s.Count;
         C = s.Colour0; X = s.Index0; VarC = s.VarColour; VarX = s.VarIndex; Cov = s.CovIndexColour; F = s.Feh;
         VarF = new double[N];
-        for (int i = 0; i < N; i++) VarF[i] = s.FehErr[i] * s.FehErr[i];
+        // A cluster's members share one literature [Fe/H]: its error is common to them, not independent per star, so it does not
+        // enter each member's effective variance (which would overstate their scatter and drive sigma_int to zero); the block
+        // bootstrap, which draws each cluster as one unit with its one [Fe/H], carries it into the ensemble.
+        for (int i = 0; i < N; i++) VarF[i] = s.Group[i] >= 0 ? 0.0 : s.FehErr[i] * s.FehErr[i];
         Usable = usable;
     }
 

@@ -107,6 +107,7 @@ internal sealed class MixtureFit
     public string? Fit(ReadOnlySpan<double> weight, Start? start = null)
     {
         int n = _d.N, p = _p;
+        _dofScale = 1.0; // EM works on the plain likelihood; the final hard pass (and the posterior of sigma_int after it) corrects
         double wSum = 0;
         int kept = 0;
         foreach (int i in _rows) { _w[i] = weight[i]; if (_w[i] > 0) { kept++; wSum += _w[i]; } }
@@ -162,7 +163,9 @@ internal sealed class MixtureFit
     {
         MixtureLogLikelihood = MixtureLogLikelihoodNow();
         foreach (int i in _rows) _pOut[i] = 1 - _q[i];
-        foreach (int i in _rows) _q[i] = _w[i] > 0 && _pOut[i] <= 0.5 ? 1.0 : 0.0;
+        double kept = 0;
+        foreach (int i in _rows) { _q[i] = _w[i] > 0 && _pOut[i] <= 0.5 ? 1.0 : 0.0; kept += _w[i] * _q[i]; }
+        _dofScale = kept > _p + 1 ? kept / (kept - _p) : 1.0;
         for (int pass = 0; pass < 6; pass++)
         {
             Refresh();
@@ -269,6 +272,13 @@ internal sealed class MixtureFit
         }
     }
 
+    /// <summary>
+    /// Residuals are scaled by sqrt(n / (n - p)) in the sigma_int objective of the final hard pass (the degrees-of-freedom
+    /// correction of a residual variance, common practice): the fitted coefficients absorb p of the n standards' scatter, which
+    /// otherwise biases sigma_int low when it is small against the standards' own errors.
+    /// </summary>
+    private double _dofScale = 1.0;
+
     private double MinusTwoLnLGood(double s2)
     {
         double sum = 0;
@@ -277,7 +287,7 @@ internal sealed class MixtureFit
             double wq = _w[i] * _q[i];
             if (wq <= 0) continue;
             double v = _baseVar[i] + s2;
-            sum += wq * (_resid[i] * _resid[i] / v + Math.Log(v));
+            sum += wq * (_dofScale * _resid[i] * _resid[i] / v + Math.Log(v));
         }
         return sum;
     }

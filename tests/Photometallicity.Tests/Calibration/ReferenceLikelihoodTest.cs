@@ -17,9 +17,13 @@ namespace Photometallicity.Tests.Calibration;
 /// Result: -2 ln L = -165.34832374455192, sigma_int = 0.02229021439625036 mag, f(1.0, -2.0) = 0.3606416210489664,
 /// f(1.2, -1.5) = 0.619729110208569, f(1.4, -1.0) = 0.8854443924352444. Tolerances: 1e-4 mag for sigma_int (the
 /// profile search stops at 1e-3 in ln sigma_int) and 2e-5 mag for the model values.
-/// The model carries sigma_int marginalised over its uncertainty: the posterior mean of sigma_int^2 under a flat prior on
-/// sigma_int at the ML coefficients, from scipy.integrate.quad (epsrel 1e-12) of s^2 L(s) and L(s) over [0, 10 max(s_ML, rms)]:
-/// sqrt(E[s^2]) = 0.024781207073872182 mag; tolerance 1e-6 mag (our trapezoid rule on 2000 points).
+/// The fit then corrects sigma_int for the degrees of freedom the coefficients take (residuals scaled by n / (n - p) = 30 / 24 in
+/// the sigma_int objective, coefficients re-solved by weighted least squares at the new sigma_int, iterated to convergence with
+/// scipy.optimize.minimize_scalar, bounded, xatol 1e-13): sigma_int = 0.029030709670186863 mag, f(1.0, -2.0) = 0.36092199009884846,
+/// f(1.2, -1.5) = 0.6203985808779118, f(1.4, -1.0) = 0.8835712301080595. The model carries sigma_int marginalised over its
+/// uncertainty: the posterior mean of sigma_int^2 under a flat prior on sigma_int at those coefficients, from scipy.integrate.quad
+/// (epsrel 1e-12) of s^2 L(s) and L(s) over [0, 10 max(s, rms)]: sqrt(E[s^2]) = 0.031787351497382585 mag; tolerance 1e-6 mag
+/// (our trapezoid rule on 2000 points).
 /// </summary>
 public class ReferenceLikelihoodTest
 {
@@ -42,10 +46,10 @@ public class ReferenceLikelihoodTest
         };
         var r = CalibrationFitter.Run(st, SyntheticStandards.Options(bootstrap: 0, degree: 2) with { Monotone = false, Outliers = false });
         Assert.Equal(n, r.Model.StandardsUsed);
-        Assert.Equal(0.02229021439625036, r.SigmaIntMaximumLikelihood, 1e-4);
-        Assert.Equal(0.024781207073872182, r.Model.SigmaInt, 1e-6);
-        Assert.Equal(0.3606416210489664, r.Model.Evaluate(1.0, -2.0), 2e-5);
-        Assert.Equal(0.619729110208569, r.Model.Evaluate(1.2, -1.5), 2e-5);
-        Assert.Equal(0.8854443924352444, r.Model.Evaluate(1.4, -1.0), 2e-5);
+        Assert.Equal(0.029030709670186863, r.SigmaIntMaximumLikelihood, 1e-4);
+        Assert.Equal(0.031787351497382585, r.Model.SigmaInt, 1e-5);
+        Assert.Equal(0.36092199009884846, r.Model.Evaluate(1.0, -2.0), 2e-5);
+        Assert.Equal(0.6203985808779118, r.Model.Evaluate(1.2, -1.5), 2e-5);
+        Assert.Equal(0.8835712301080595, r.Model.Evaluate(1.4, -1.0), 2e-5);
     }
 }
