@@ -18,7 +18,7 @@ public static class CalibrationFitter
     /// <summary>Smallest colour spread (mag) and [Fe/H] spread (dex) a 2-D calibration can be fitted to (project choice).</summary>
     public const double MinColourSpread = 0.05, MinFehSpread = 0.1;
 
-    /// <summary>A standard with p_outlier above this is called an outlier (the more likely of the two components).</summary>
+    /// <summary>A standard with p_outlier above this (and beyond MixtureFit.MinOutlierSigma) is called an outlier.</summary>
     public const double OutlierThreshold = 0.5;
 
     /// <summary>
@@ -104,7 +104,7 @@ public static class CalibrationFitter
                 continue;
             }
             double r = fit.Residual[i], z = fit.Z(i), g = fit.GradientFeh[i], po = fit.POutlier(i);
-            bool ok = po <= OutlierThreshold;
+            bool ok = !fit.IsOutlier(i);
             if (ok) accepted.Add(i); else flagged++;
             string reason = ok ? "accepted"
                 : string.Create(CultureInfo.InvariantCulture, $"outlier: p_outlier {po:F3}, residual {z:+0.0;-0.0} sigma_eff, index residual {r:+0.0000;-0.0000} mag = {r / g:+0.00;-0.00} dex");
