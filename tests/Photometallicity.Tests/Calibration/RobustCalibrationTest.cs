@@ -34,7 +34,7 @@ public class RobustCalibrationTest
             {
                 var v = r.PerStandard[i];
                 Assert.InRange(v.POutlier, 0.0, 1.0);
-                if (v.Status == StandardStatus.RejectedOutlier) Assert.True(v.POutlier > CalibrationFitter.OutlierThreshold && Math.Abs(v.ResidualSigma) > 3);
+                if (v.Status == StandardStatus.RejectedOutlier) Assert.True(v.POutlier > CalibrationFitter.OutlierThreshold && Math.Abs(v.ResidualSigma) > MixtureFit.MinOutlierSigma);
                 if (bad[i]) { badTotal++; if (!v.Accepted) badFlagged++; }
                 else { goodTotal++; if (!v.Accepted) goodFlagged++; }
             }
