@@ -31,6 +31,9 @@ public sealed record PipelineResult
 
     /// <summary>The calibration's share of the error of the members' mean [Fe/H] (dex), see <see cref="MdfCalibrationError"/>.</summary>
     public double MdfCalibrationErrorDex { get; init; } = double.NaN;
+
+    /// <summary>The calibration's share of the error of the members' [Fe/H] spread (dex), see <see cref="MdfCalibrationError.OfMeanAndSpread"/>.</summary>
+    public double MdfSpreadCalibrationErrorDex { get; init; } = double.NaN;
     public ForecastRequest? ForecastRequest { get; init; }
     public StarRows? Stars { get; init; }
     public required IReadOnlyList<string> Warnings { get; init; }

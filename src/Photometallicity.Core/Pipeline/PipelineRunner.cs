@@ -129,9 +129,10 @@ public static class PipelineRunner
         }
         else warnings.Add("no forecast: a photometric error model could not be fitted for every band");
 
-        double mdfCalErr = MdfCalibrationError.Of(cm, photometry.Index.Colour0, metallicity, membership.PMember);
+        var (mdfCalErr, mdfCalSpreadErr) = MdfCalibrationError.OfMeanAndSpread(cm, photometry.Index.Colour0, metallicity, membership.PMember);
         if (membership.Mdf is { } mdfFit)
-            log.LogInformation("membership: mean [Fe/H] {Mean:F3} +/- {Stat:F3} (statistical) +/- {Cal:F3} (calibration) dex", mdfFit.Mean, mdfFit.MeanErr, mdfCalErr);
+            log.LogInformation("membership: mean [Fe/H] {Mean:F3} +/- {Stat:F3} (statistical) +/- {Cal:F3} (calibration), spread {Sigma:F3} +/- {SStat:F3} +/- {SCal:F3} dex",
+                mdfFit.Mean, mdfFit.MeanErr, mdfCalErr, mdfFit.Sigma, mdfFit.SigmaErr, mdfCalSpreadErr);
 
         var completeness = CompletenessWarnings(photometry, match, membership.PMember, metallicity, warnings);
         var stars = StarRowsBuilder.Build(config, inputs, match, photometry, metallicity, membership.PMember, dwarf?.Metallicity);
@@ -153,6 +154,7 @@ public static class PipelineRunner
             Forecast = forecast,
             ForecastRequest = request,
             MdfCalibrationErrorDex = mdfCalErr,
+            MdfSpreadCalibrationErrorDex = mdfCalSpreadErr,
             Stars = stars,
             Warnings = warnings,
             Timings = timings,

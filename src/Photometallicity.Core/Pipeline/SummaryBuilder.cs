@@ -46,15 +46,15 @@ public static class SummaryBuilder
         if (r.Membership is { } mem)
         {
             summary["members"] = Members(mem, c.Membership.MagnitudeBand);
-            double cal = r.MdfCalibrationErrorDex;
-            summary["mdf"] = Mdf(mem.Mdf, cal);
+            double cal = r.MdfCalibrationErrorDex, calSpread = r.MdfSpreadCalibrationErrorDex;
+            summary["mdf"] = Mdf(mem.Mdf, cal, calSpread);
             if (r.Metallicity is { } fehResult)
                 summary["depth"] = DepthTable.Build(r.Photometry.Index, fehResult, mem, c.Target.DistanceModulus, r.Match.RightIndex.Select(k => k >= 0).ToArray());
             summary["mdf_modes"] = new JsonObject
             {
                 ["configured"] = c.Membership.UseMetallicity ? "with_metallicity_term" : "without_metallicity_term",
-                ["with_metallicity_term"] = Mdf(mem.MdfWithMetallicityTerm, cal),
-                ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm, cal),
+                ["with_metallicity_term"] = Mdf(mem.MdfWithMetallicityTerm, cal, calSpread),
+                ["without_metallicity_term"] = Mdf(mem.MdfWithoutMetallicityTerm, cal, calSpread),
             };
         }
         if (r.Forecast is { } fc && r.ForecastRequest is { } fr) summary["forecast"] = ForecastStep.Summary(fc, fr);
@@ -182,17 +182,19 @@ public static class SummaryBuilder
     }
 
     /// <summary>
-    /// An MDF fit; mean_err combines in quadrature the statistical error (likelihood curvature) and the calibration's
-    /// common error (both also given apart).
+    /// An MDF fit; mean_err and sigma_err combine in quadrature the statistical error (likelihood curvature) and the
+    /// calibration's common error (both also given apart).
     /// </summary>
-    public static JsonNode? Mdf(MdfFit? f, double calibrationErr) => f is null ? null : new JsonObject
+    public static JsonNode? Mdf(MdfFit? f, double calibrationErr, double spreadCalibrationErr = double.NaN) => f is null ? null : new JsonObject
     {
         ["mean"] = N(f.Mean),
         ["mean_err"] = N(double.IsFinite(calibrationErr) ? Math.Sqrt(f.MeanErr * f.MeanErr + calibrationErr * calibrationErr) : f.MeanErr),
         ["mean_err_statistical"] = N(f.MeanErr),
         ["mean_err_calibration"] = N(calibrationErr),
         ["sigma"] = N(f.Sigma),
-        ["sigma_err"] = N(f.SigmaErr),
+        ["sigma_err"] = N(double.IsFinite(spreadCalibrationErr) ? Math.Sqrt(f.SigmaErr * f.SigmaErr + spreadCalibrationErr * spreadCalibrationErr) : f.SigmaErr),
+        ["sigma_err_statistical"] = N(f.SigmaErr),
+        ["sigma_err_calibration"] = N(spreadCalibrationErr),
         ["weight_sum"] = N(f.WeightSum),
         ["stars"] = f.StarCount,
         ["sigma_at_floor"] = f.SigmaAtFloor,

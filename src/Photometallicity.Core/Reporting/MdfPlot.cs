@@ -110,9 +110,10 @@ public static class MdfPlot
         plot.XLabel("[Fe/H] (dex)");
         plot.YLabel("Σ p_member per bin (stars)");
         plot.ShowLegend(Alignment.UpperLeft);
-        string title = 
-            $"⟨[Fe/H]⟩ = {ValueFormat.Num(d.MeanDex, "0.00")} ± {ValueFormat.Num(d.MeanErrDex, "0.00")} dex, " +
-            $"σ = {ValueFormat.Num(d.SigmaDex, "0.00")} ± {ValueFormat.Num(d.SigmaErrDex, "0.00")} dex";
+        // Each number to the precision its uncertainty supports (two significant digits of the error; ValueFormat.Format).
+        var (mv, me) = ValueFormat.Format(new KeyNumber("mean", d.MeanDex, d.MeanErrDex, "dex"));
+        var (sv, se) = ValueFormat.Format(new KeyNumber("sigma", d.SigmaDex, d.SigmaErrDex, "dex"));
+        string title = $"⟨[Fe/H]⟩ = {mv} ± {me} dex, σ = {sv} ± {se} dex";
         FigureStyle.Finish(plot, d.Title is null ? title : d.Title + "\n" + title);
         return plot;
     }
