@@ -10,7 +10,8 @@ public class MdfPlotTest
     {
         using var dir = new TempDir();
         string[] texts = FigureChecks.Valid(MdfPlot.Write(InventedField.Mdf(), dir.File("mdf")));
-        Assert.Contains(texts, t => t.Contains("⟨[Fe/H]⟩ = −1.50 ± 0.01 dex, σ = 0.30 ± 0.02 dex", StringComparison.Ordinal));
+        // Each number to the precision of its error (two significant digits of the error: 0.012 and 0.016).
+        Assert.Contains(texts, t => t.Contains("⟨[Fe/H]⟩ = −1.500 ± 0.012 dex, σ = 0.300 ± 0.016 dex", StringComparison.Ordinal));
         Assert.Contains("[Fe/H] (dex)", texts);
         Assert.Contains(texts, t => t.StartsWith("median per-star error e = ±", StringComparison.Ordinal));
         Assert.Contains(texts, t => t.StartsWith("observed: √(σ² + e²) = ", StringComparison.Ordinal));
