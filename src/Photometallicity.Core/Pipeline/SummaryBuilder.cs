@@ -133,6 +133,7 @@ public static class SummaryBuilder
                 ["support_colour"] = new JsonArray(N(x.ColourLo), N(x.ColourHi)),
                 ["support_feh"] = new JsonArray(N(x.FehLo), N(x.FehHi)),
                 ["kappa_colour_mag_per_mag"] = N(x.KappaColour),
+                ["kappa_colour2_mag_per_mag2"] = N(x.KappaColour2),
                 ["kappa_feh_ln_sensitivity"] = N(x.KappaFeh),
                 ["domain"] = r.Config.Metallicity.StrictDomain ? "hull" : "extrapolate",
             } : null,
