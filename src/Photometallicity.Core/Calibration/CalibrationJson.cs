@@ -52,22 +52,12 @@ public static class CalibrationJson
             case MonotoneBasis b:
                 w.WriteString("kind", "monotone");
                 w.WriteString("form", "index0 = sum_a p_a u^a + sum_j max(0, alpha_j (1 - t) + beta_j t) I_j([Fe/H]), t = (colour0 - colour_lo) / (colour_hi - colour_lo), u = 2 t - 1 (tangent continuation outside [-1, 1]); I_j quadratic I-splines on the knots [feh_lo x3, feh_knots, feh_hi x3] (Ramsay 1988), tangent continuation outside [feh_lo, feh_hi]; coefficients in the order p_0..p_d, alpha_1..alpha_J, beta_1..beta_J");
-                w.WriteNumber("colour_degree", b.ColourDegree);
-                Num(w, "colour_lo", b.ColourLo);
-                Num(w, "colour_hi", b.ColourHi);
-                Num(w, "feh_lo", b.Ramps.Lo);
-                Num(w, "feh_hi", b.Ramps.Hi);
-                Arr(w, "feh_knots", b.Ramps.Knots);
+                MonotoneFields(w, b.ColourDegree, b.ColourLo, b.ColourHi, b.Ramps);
                 break;
             case SeparableBasis b:
                 w.WriteString("kind", "separable");
                 w.WriteString("form", "index0 = sum_a p_a u^a + a(t) sum_j w_j I_j([Fe/H]), a(t) = 1 + gamma t (exponential continuation from the edges outside [0, 1]), t = (colour0 - colour_lo) / (colour_hi - colour_lo), u = 2 t - 1 (tangent continuation outside [-1, 1]); I_j quadratic I-splines on the knots [feh_lo x3, feh_knots, feh_hi x3] (Ramsay 1988), tangent continuation outside [feh_lo, feh_hi]; coefficients in the order p_0..p_d, w_1..w_J");
-                w.WriteNumber("colour_degree", b.ColourDegree);
-                Num(w, "colour_lo", b.ColourLo);
-                Num(w, "colour_hi", b.ColourHi);
-                Num(w, "feh_lo", b.Ramps.Lo);
-                Num(w, "feh_hi", b.Ramps.Hi);
-                Arr(w, "feh_knots", b.Ramps.Knots);
+                MonotoneFields(w, b.ColourDegree, b.ColourLo, b.ColourHi, b.Ramps);
                 Num(w, "gamma", b.Gamma);
                 break;
             default:
@@ -187,6 +177,17 @@ public static class CalibrationJson
 
     /// <summary>Reads a calibration file (see <see cref="CalibrationJsonReader.Read"/>).</summary>
     public static CalibrationModel Read(string path) => CalibrationJsonReader.Read(path);
+
+    /// <summary>The fields the monotone and separable models share: colour degree and range, ramps' range and knots.</summary>
+    private static void MonotoneFields(Utf8JsonWriter w, int colourDegree, double colourLo, double colourHi, MonotoneRamps ramps)
+    {
+        w.WriteNumber("colour_degree", colourDegree);
+        Num(w, "colour_lo", colourLo);
+        Num(w, "colour_hi", colourHi);
+        Num(w, "feh_lo", ramps.Lo);
+        Num(w, "feh_hi", ramps.Hi);
+        Arr(w, "feh_knots", ramps.Knots);
+    }
 
     private static void Num(Utf8JsonWriter w, string key, double v)
     {

@@ -63,17 +63,8 @@ public sealed class SeparableBasis : IIndexBasis, IEquatable<SeparableBasis>
         return (1 + Gamma * t, Gamma);
     }
 
-    private void ColourTerms(double colour, Span<double> pw, Span<double> dpw, Span<double> d2pw, out double t)
-    {
-        t = (colour - ColourLo) / Width;
-        double u = 2 * t - 1, uc = Math.Clamp(u, -1, 1);
-        for (int a = 0; a <= ColourDegree; a++)
-        {
-            double v = Math.Pow(uc, a), dv = a == 0 ? 0 : a * Math.Pow(uc, a - 1), d2 = a < 2 ? 0 : a * (a - 1) * Math.Pow(uc, a - 2);
-            if (u != uc) { pw[a] = v + dv * (u - uc); dpw[a] = dv; d2pw[a] = 0; }
-            else { pw[a] = v; dpw[a] = dv; d2pw[a] = d2; }
-        }
-    }
+    private void ColourTerms(double colour, Span<double> pw, Span<double> dpw, Span<double> d2pw, out double t) =>
+        ColourPowers.Evaluate(ColourDegree, ColourLo, ColourHi, colour, pw, dpw, d2pw, out t);
 
     public void Terms(double colour, double feh, Span<double> terms)
     {
