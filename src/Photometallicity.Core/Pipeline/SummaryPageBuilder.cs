@@ -38,7 +38,7 @@ public static class SummaryPageBuilder
             new("Calibration standards rejected as outliers", N(cal["standards_rejected"]), null, "", "F0"),
             new("Calibration residual rms", N(cal["rms_dex"]), null, "dex"),
             new("Calibration intrinsic scatter", N(cal["sigma_int_mag"]), null, "mag"),
-            new("Calibration degree", N(cal["degree"]), null, "", "F0"),
+            new("Calibration: share of standards in the outlier component", N(cal["outlier_fraction"]), null, "", "F3"),
             new("Narrow-band detection complete to blue0", N(s["photometry"]!["narrow_complete_to_blue0_mag"]), null, "mag", "F2"),
             new("Expected members (sum of p_member)", N(mem["expected"]), null, "", "F1"),
             new("Half-light radius", N(mem["half_light_arcmin"]), N(mem["half_light_err_arcmin"]), "arcmin"),
@@ -50,6 +50,16 @@ public static class SummaryPageBuilder
             keys.Add(new("Members' mean [Fe/H]", N(mdf["mean"]), N(mdf["mean_err"]), "dex"));
             keys.Add(new("Members' intrinsic [Fe/H] spread", N(mdf["sigma"]), N(mdf["sigma_err"]), "dex"));
         }
+        // How deep the values reach: per bin of red0 - mu, the members' median 16-84% half-width and the share of narrow-band
+        // detected members given a value (the `depth` table of summary.json has the rest).
+        if (s["depth"] is JsonArray depth)
+            foreach (var row in depth.OfType<JsonObject>())
+            {
+                var bin = row["red0_minus_mu"]!.AsArray();
+                string range = $"[{(double)bin[0]!:+0;-0;0}, {(double)bin[1]!:+0;-0;0})";
+                keys.Add(new($"Members at red0 - mu in {range}: median [Fe/H] half-width ({N(row["members_expected"]):F0} expected, {100 * N(row["share_with_value"]):F0}% of the detected with a value, {100 * N(row["share_extrapolated"]):F0}% of those extrapolated)",
+                    N(row["median_half_width_dex"]), null, "dex", "F2"));
+            }
         var warnings = s["warnings"]!.AsArray().Select(w => (string)w!).ToList();
         var prov = s["provenance"]!.AsObject();
         var settings = new List<KeyValuePair<string, string>>
@@ -57,6 +67,7 @@ public static class SummaryPageBuilder
             new("config", (string?)prov["config"] ?? ""),
             new("calibration bootstrap seed", prov["seeds"]?["calibration_bootstrap"]?.ToString() ?? ""),
             new("membership seed", prov["seeds"]?["membership"]?.ToString() ?? ""),
+            new("calibration model", (string?)cal["model"] ?? ""),
         };
         var provenance = new ProvenanceInfo((string?)prov["version"] ?? "", (long?)(ulong?)prov["seed"], settings, prov["resolved_config"]?.ToJsonString(RunOutputWriter.JsonOptions));
         return new SummaryPageData("Photometallicity run summary", inputs, outputs, warnings, keys, figures, provenance);
