@@ -5,8 +5,8 @@ namespace Photometallicity.Metallicity;
 /// <summary>
 /// Where the [Fe/H] assignment applies a calibration. Strict (or a calibration without an extrapolation model): the convex hull
 /// of the accepted standards, as in <see cref="CalibrationModel.Domain"/>. Otherwise a rectangle: every [Fe/H] of the grid, at
-/// colours within <see cref="MetallicityOptions.ColourReach"/> of the standards' colours; beyond the standards the ensemble
-/// carries the model-form error that grows with the distance (<see cref="Extrapolation"/>).
+/// colours within <see cref="MetallicityOptions.ColourReach"/> of the standards' colours; beyond the standards each star's
+/// variance carries the model-form error that grows with the distance (<see cref="Extrapolation.ModelFormVariance"/>).
 /// </summary>
 internal static class ApplicationDomain
 {

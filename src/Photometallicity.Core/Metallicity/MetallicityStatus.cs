@@ -14,9 +14,9 @@ namespace Photometallicity.Metallicity;
 /// is narrower than two grid points).</description></item>
 /// <item><term>NonMonotonic</term><description>the colour falls in an interval the calibration excludes because the model is not
 /// monotonic in [Fe/H] there (a second, false root).</description></item>
-/// <item><term>Extrapolated</term><description>values given from a full posterior, but the star's colour or its posterior median
-/// lies beyond the accepted standards (colour or [Fe/H] range): the calibration is extrapolated there and its model-form error,
-/// measured on the standards, is part of the interval.</description></item>
+/// <item><term>Extrapolated</term><description>values given from a full posterior, but (colour, posterior median) lies outside the
+/// convex hull of the accepted standards: the calibration is extrapolated there and its model-form error, measured on the
+/// standards, is part of the interval.</description></item>
 /// <item><term>BadPhotometry</term><description>the photometry status is not Ok, or the index, colour or their (co)variances are not finite.</description></item>
 /// </list>
 /// </summary>
