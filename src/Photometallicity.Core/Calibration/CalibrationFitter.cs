@@ -83,6 +83,38 @@ public static class CalibrationFitter
             throw new MethodException($"The calibration fit failed for the model \"{basis.Describe}\" with {idx.Length} usable standards: {err}.");
         if (fit.Passes > 200)
             logger.LogWarning("calibration: the outlier mixture did not settle after 200 passes; the last pass is used");
+        // Deleted residuals: a bad standard at an end of the [Fe/H] range can bend the fit towards itself and hide; predicted
+        // from the cross-validation fit that left it out (choice.Chosen.Residual), it cannot. A standard the mixture kept is also
+        // an outlier when its held-out residual is (same mixture, variance inflated by 1 + p / n_train for the prediction; common
+        // practice for deleted residuals, e.g. Cook & Weisberg 1982, Residuals and Influence in Regression, ch. 2), and the fit is
+        // redone without those.
+        var cvOutlier = new bool[n];
+        var pCv = Enumerable.Repeat(double.NaN, n).ToArray();
+        var cvRes = choice.Chosen.Residual;
+        if (options.Outliers && cvRes.Length == n)
+        {
+            int added = 0;
+            double inflate = 1 + (double)np / Math.Max(1, 0.8 * idx.Length), pi = fit.OutlierFraction;
+            foreach (int i in idx)
+            {
+                double r = cvRes[i];
+                if (fit.IsOutlier(i) || !double.IsFinite(r)) continue;
+                double v = (fit.BaseVariance(i) + fit.SigmaInt * fit.SigmaInt) * inflate, g = fit.GradientFeh[i];
+                double vb = v + Math.Max(g * g * MixtureFit.BadFehSigma * MixtureFit.BadFehSigma, 3 * v);
+                double good = (1 - pi) * Math.Exp(-0.5 * r * r / v) / Math.Sqrt(v), bad = pi * Math.Exp(-0.5 * r * r / vb) / Math.Sqrt(vb);
+                pCv[i] = good + bad > 0 ? bad / (good + bad) : 1.0;
+                if (pCv[i] > 0.5 && Math.Abs(r) > MixtureFit.MinOutlierSigma * Math.Sqrt(v)) { cvOutlier[i] = true; added++; }
+            }
+            if (added > 0)
+            {
+                var w = new double[n];
+                for (int i = 0; i < n; i++) w[i] = cvOutlier[i] ? 0.0 : 1.0;
+                string? err2 = fit.Fit(w);
+                if (err2 is not null)
+                    throw new MethodException($"The calibration fit failed for the model \"{basis.Describe}\" without {added} standards whose held-out residuals are outliers: {err2}.");
+                logger.LogInformation("calibration: {N} more standards are outliers by their held-out residuals", added);
+            }
+        }
         var coef = fit.Coefficients.ToArray();
         // sigma_int marginalised over its uncertainty (see MixtureFit.PosteriorMeanSigmaInt2): the excess of the posterior mean
         // of sigma_int^2 over the ML value is added to the model's and every ensemble member's sigma_int^2.
@@ -103,11 +135,11 @@ public static class CalibrationFitter
                 verdicts[i] = new StandardVerdict(standards.Id[i], preStatus[i], preReason[i]!, double.NaN, double.NaN, double.NaN, double.NaN, double.NaN);
                 continue;
             }
-            double r = fit.Residual[i], z = fit.Z(i), g = fit.GradientFeh[i], po = fit.POutlier(i);
-            bool ok = !fit.IsOutlier(i);
+            double r = fit.Residual[i], z = fit.Z(i), g = fit.GradientFeh[i], po = cvOutlier[i] ? pCv[i] : fit.POutlier(i);
+            bool ok = !fit.IsOutlier(i) && !cvOutlier[i];
             if (ok) accepted.Add(i); else flagged++;
             string reason = ok ? "accepted"
-                : string.Create(CultureInfo.InvariantCulture, $"outlier: p_outlier {po:F3}, residual {z:+0.0;-0.0} sigma_eff, index residual {r:+0.0000;-0.0000} mag = {r / g:+0.00;-0.00} dex");
+                : string.Create(CultureInfo.InvariantCulture, $"outlier{(cvOutlier[i] ? " by its held-out residual" : "")}: p_outlier {po:F3}, residual {z:+0.0;-0.0} sigma_eff, index residual {r:+0.0000;-0.0000} mag = {r / g:+0.00;-0.00} dex");
             double cvr = i < cvResid.Length ? cvResid[i] : double.NaN;
             verdicts[i] = new StandardVerdict(standards.Id[i], ok ? StandardStatus.Accepted : StandardStatus.RejectedOutlier, reason,
                 r, z, r / g, cvr, cvr / g, po);
