@@ -212,51 +212,31 @@ internal sealed class LikelihoodKernel
     private void AccumulateGaussian(ref StarTask s, float[] accArr)
     {
         var lv = _g.Levels[s.Level];
-        int w = Vector<float>.Count;
-        int nv = VectorSpan(s.Ib + 1 - s.Ia) / w;
-        ref float acc = ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(accArr), s.Ia);
-        ref float val = ref MemoryMarshal.GetArrayDataReference(_g.MeanValue[s.Level]);
-        ref float slo = ref MemoryMarshal.GetArrayDataReference(_g.MeanSlope[s.Level]);
-        ref float spr = ref MemoryMarshal.GetArrayDataReference(_g.SpreadVariance[s.Level]);
         nuint r0 = (nuint)(s.K * lv.RowStride + s.Ia), r1 = (nuint)((s.K + 1) * lv.RowStride + s.Ia);
-        var vt = new Vector<float>(s.T);
-        var vx = new Vector<float>(s.X0);
-        var vc = new Vector<float>(s.VarC);
-        var v2cov = new Vector<float>(2f * s.Cov);
-        var va = new Vector<float>(s.VarX + _g.SigmaInt2Mean);
-        var half = new Vector<float>(-0.5f);
-        var tiny = new Vector<float>(1e-12f);
-        for (int i = 0; i < nv; i++)
-        {
-            nuint o = (nuint)(i * w);
-            var f0 = Vector.LoadUnsafe(ref val, r0 + o);
-            var f1 = Vector.LoadUnsafe(ref val, r1 + o);
-            var s0 = Vector.LoadUnsafe(ref slo, r0 + o);
-            var s1 = Vector.LoadUnsafe(ref slo, r1 + o);
-            var p0 = Vector.LoadUnsafe(ref spr, r0 + o);
-            var p1 = Vector.LoadUnsafe(ref spr, r1 + o);
-            var f = f0 + vt * (f1 - f0);
-            var gg = s0 + vt * (s1 - s0);
-            var s2 = Vector.Max(va + p0 + vt * (p1 - p0) + gg * (gg * vc - v2cov), tiny);
-            var inv = Vector<float>.One / s2;
-            var d = vx - f;
-            var like = FastExp.NonPositive(half * d * d * inv) * Vector.SquareRoot(inv);
-            Vector.StoreUnsafe(like, ref Unsafe.Add(ref acc, i * w));
-        }
+        Accumulate(ref s, accArr, _g.MeanValue[s.Level], _g.MeanSlope[s.Level], r0, r1, _g.SpreadVariance[s.Level], r0, r1, _g.SigmaInt2Mean);
     }
 
+    /// <summary>One ensemble member's rows, with the model-form variance added.</summary>
     private void AccumulateMember(ref StarTask s, float[] accArr, int mm, float sint2)
     {
         var lv = _g.Levels[s.Level];
-        ref float ext = ref MemoryMarshal.GetArrayDataReference(_g.ModelFormVariance[s.Level]);
         nuint e0 = (nuint)(s.K * lv.RowStride + s.Ia), e1 = (nuint)((s.K + 1) * lv.RowStride + s.Ia);
+        nuint r0 = (nuint)(lv.Row(s.K, mm) + s.Ia), r1 = (nuint)(lv.Row(s.K + 1, mm) + s.Ia);
+        Accumulate(ref s, accArr, lv.Value, lv.Slope, r0, r1, _g.ModelFormVariance[s.Level], e0, e1, sint2);
+    }
+
+    /// <summary>
+    /// Adds N(X0; f, s^2) at the star's evaluated points to its accumulator, with f, df/dC and the extra variance interpolated
+    /// in colour between rows r0 / r1 (values and slopes) and e0 / e1 (extra variance) of the given tables.
+    /// </summary>
+    private static void Accumulate(ref StarTask s, float[] accArr, float[] values, float[] slopes, nuint r0, nuint r1, float[] extra, nuint e0, nuint e1, float sint2)
+    {
         int w = Vector<float>.Count;
         int nv = VectorSpan(s.Ib + 1 - s.Ia) / w;
         ref float acc = ref Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(accArr), s.Ia);
-        ref float val = ref MemoryMarshal.GetArrayDataReference(lv.Value);
-        ref float slo = ref MemoryMarshal.GetArrayDataReference(lv.Slope);
-        nuint r0 = (nuint)(lv.Row(s.K, mm) + s.Ia);
-        nuint r1 = (nuint)(lv.Row(s.K + 1, mm) + s.Ia);
+        ref float val = ref MemoryMarshal.GetArrayDataReference(values);
+        ref float slo = ref MemoryMarshal.GetArrayDataReference(slopes);
+        ref float ext = ref MemoryMarshal.GetArrayDataReference(extra);
         var vt = new Vector<float>(s.T);
         var vx = new Vector<float>(s.X0);
         var vc = new Vector<float>(s.VarC);
