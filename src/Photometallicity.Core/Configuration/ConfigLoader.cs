@@ -249,12 +249,12 @@ public static partial class ConfigLoader
             n.Optional("max_knots")?.AsInt(0, 4) ?? 2)
         {
             GiantMaxLogG = n.Optional("giant_max_logg")?.AsNumber(0, 6) ?? 3.5, // giants/dwarfs boundary; common practice
-            Monotone = (n.Optional("model")?.AsString() ?? "monotone") switch
+            Monotone = n.Optional("model") is { } mn ? mn.AsString() switch
             {
                 "monotone" => true,
                 "polynomial" => false,
-                var other => throw n.Error($"model must be \"monotone\" or \"polynomial\", not \"{other}\""),
-            },
+                var other => throw mn.Error($"must be \"monotone\" or \"polynomial\", not \"{other}\""),
+            } : true,
             Outliers = n.Optional("outliers")?.AsBool() ?? true,
         };
         n.RejectUnknown();
@@ -274,12 +274,12 @@ public static partial class ConfigLoader
             n.Optional("prior_mean")?.AsNumber(-6, 2),
             n.Optional("prior_sigma")?.AsNumber(0.01, 10))
         {
-            StrictDomain = (n.Optional("domain")?.AsString() ?? "extrapolate") switch
+            StrictDomain = n.Optional("domain") is { } dn ? dn.AsString() switch
             {
                 "extrapolate" => false,
                 "hull" => true,
-                var other => throw n.Error($"domain must be \"extrapolate\" or \"hull\", not \"{other}\""),
-            },
+                var other => throw dn.Error($"must be \"extrapolate\" or \"hull\", not \"{other}\""),
+            } : false,
             ColourReach = n.Optional("colour_reach")?.AsNumber(0, 3) ?? Photometallicity.Metallicity.MetallicityOptions.DefaultColourReach,
         };
         n.RejectUnknown();

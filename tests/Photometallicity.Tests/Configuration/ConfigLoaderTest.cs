@@ -79,6 +79,25 @@ public class ConfigLoaderTest
         Assert.Equal($"{p}: config key 'target.dec': value -98.47 is outside the allowed range [-90, 90]", e.Message);
     }
 
+    [Theory]
+    [InlineData("\"metallicity\": { \"domain\": \"box\" },", "config key 'metallicity.domain': must be \"extrapolate\" or \"hull\", not \"box\"")]
+    [InlineData("\"metallicity\": { \"colour_reach\": 9 },", "config key 'metallicity.colour_reach': value 9 is outside the allowed range [0, 3]")]
+    [InlineData("\"calibration\": { \"model\": \"spline\" },", "config key 'calibration.model': must be \"monotone\" or \"polynomial\", not \"spline\"")]
+    [InlineData("\"calibration\": { \"knots\": 7 },", "config key 'calibration.knots': value 7 is outside the allowed range [0, 4]")]
+    public void Load_CalibrationAndDomainKeys_NameTheKeyAndTheAllowedValues(string block, string message)
+    {
+        using var dir = new TempDir();
+        string text = DemoConfig();
+        string key = block[..block.IndexOf(':')];
+        // Replace the demo's own block of that key (one line) with the test's.
+        var lines = text.Split('\n').Where(l => !l.TrimStart().StartsWith(key, StringComparison.Ordinal)).ToList();
+        int at = lines.FindIndex(l => l.TrimStart().StartsWith("\"target\"", StringComparison.Ordinal));
+        lines.Insert(at, "  " + block);
+        string p = WriteConfig(dir, string.Join('\n', lines));
+        var e = Assert.Throws<InputException>(() => ConfigLoader.Load(p));
+        Assert.Contains(message, e.Message);
+    }
+
     [Fact]
     public void Load_CommentsAndTrailingCommas_AreAccepted()
     {
