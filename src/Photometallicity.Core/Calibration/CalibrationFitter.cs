@@ -164,7 +164,7 @@ public static class CalibrationFitter
         double cvRmsIndex = Rms(accepted.Select(i => verdicts[i].CvResidualIndex));
         double cvRmsDex = Rms(accepted.Select(i => verdicts[i].CvResidualDex));
 
-        // 5. The strict domain (convex hull of the accepted standards) and the support box with its extrapolation error.
+        // 5. The convex hull of the accepted standards (the strict domain, and the support beyond which the extrapolation error grows).
         var hullPoints = ValidityDomain.ConvexHull(accepted.Select(i => (standards.Colour0[i], standards.Feh[i])));
         var domain = new ValidityDomain(hullPoints, []);
         var start = fit.Current;
