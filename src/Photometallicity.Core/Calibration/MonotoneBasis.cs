@@ -5,7 +5,7 @@ namespace Photometallicity.Calibration;
 /// <summary>
 /// A forward model monotonic in [Fe/H] by construction:
 ///   f(C, F) = p(C) + sum_j s_j(C) I_j(F),   s_j(C) = max(0, alpha_j (1 - t) + beta_j t),   t = (C - ColourLo) / (ColourHi - ColourLo),
-/// with p a polynomial of degree <see cref="ColourDegree"/> in u = 2t - 1, I_j the quadratic I-splines of
+/// with p a polynomial of degree <see cref="RampBasis.ColourDegree"/> in u = 2t - 1, I_j the quadratic I-splines of
 /// <see cref="MonotoneRamps"/> (Ramsay 1988, Statistical Science 3, 425), and alpha_j, beta_j &gt;= 0 (the fit's constraints).
 /// At fixed colour the index then never falls as [Fe/H] rises: the Ca II H and K absorption grows with metal abundance at a
 /// given temperature, which is common practice to assume for this index (e.g. the calibrations of the Ca II K line strength
@@ -18,47 +18,26 @@ namespace Photometallicity.Calibration;
 /// colour between ColourLo and ColourHi, where the standards are.
 /// Term order: p_0 .. p_d (powers of u), alpha_1 .. alpha_J, beta_1 .. beta_J.
 /// </summary>
-public sealed class MonotoneBasis : IIndexBasis, IEquatable<MonotoneBasis>
+public sealed class MonotoneBasis : RampBasis, IEquatable<MonotoneBasis>
 {
+    public MonotoneBasis(int colourDegree, double colourLo, double colourHi, MonotoneRamps ramps)
+        : base(colourDegree, colourLo, colourHi, ramps, 2 * ramps.Count)
+    {
+    }
+
     /// <summary>Two bases are equal when they have the same degree, colour range and ramps (structural equality).</summary>
-    public bool Equals(MonotoneBasis? other) => other is not null && ColourDegree == other.ColourDegree && ColourLo == other.ColourLo &&
-        ColourHi == other.ColourHi && Ramps.Lo == other.Ramps.Lo && Ramps.Hi == other.Ramps.Hi && Ramps.Knots.SequenceEqual(other.Ramps.Knots);
+    public bool Equals(MonotoneBasis? other) => other is not null && SameShape(other);
 
     public override bool Equals(object? obj) => Equals(obj as MonotoneBasis);
 
-    public override int GetHashCode() => HashCode.Combine(ColourDegree, ColourLo, ColourHi, Ramps.Lo, Ramps.Hi, Ramps.Knots.Length);
+    public override int GetHashCode() => ShapeHash();
 
-    public MonotoneBasis(int colourDegree, double colourLo, double colourHi, MonotoneRamps ramps)
-    {
-        if (colourDegree < 1 || colourDegree > 3) throw new ArgumentOutOfRangeException(nameof(colourDegree), colourDegree, "the colour degree must be 1, 2 or 3");
-        if (!(colourHi > colourLo)) throw new ArgumentException($"the colour range [{colourLo}, {colourHi}] is empty");
-        ColourDegree = colourDegree;
-        ColourLo = colourLo;
-        ColourHi = colourHi;
-        Ramps = ramps;
-        Count = colourDegree + 1 + 2 * ramps.Count;
-        NonNegative = new bool[Count];
-        for (int k = colourDegree + 1; k < Count; k++) NonNegative[k] = true;
-    }
+    public override int Complexity => Count;
 
-    public int ColourDegree { get; }
-    public double ColourLo { get; }
-    public double ColourHi { get; }
-    public MonotoneRamps Ramps { get; }
-    public int Count { get; }
-    public bool[]? NonNegative { get; }
-    public int Complexity => Count;
+    public override string Describe => string.Create(CultureInfo.InvariantCulture,
+        $"monotone in [Fe/H]: colour degree {ColourDegree}, {KnotsText}, {Count} coefficients");
 
-    public string Describe => string.Create(CultureInfo.InvariantCulture,
-        $"monotone in [Fe/H]: colour degree {ColourDegree}, {Ramps.Knots.Length} interior [Fe/H] knot{(Ramps.Knots.Length == 1 ? "" : "s")}, {Count} coefficients");
-
-    private double Width => ColourHi - ColourLo;
-
-    /// <summary>u = 2t - 1 and the colour powers (with tangent continuation outside [-1, 1]) and their first and second u-derivatives.</summary>
-    private void ColourTerms(double colour, Span<double> pw, Span<double> dpw, Span<double> d2pw, out double t) =>
-        ColourPowers.Evaluate(ColourDegree, ColourLo, ColourHi, colour, pw, dpw, d2pw, out t);
-
-    public void Terms(double colour, double feh, Span<double> terms)
+    public override void Terms(double colour, double feh, Span<double> terms)
     {
         int d = ColourDegree, n = Ramps.Count;
         Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
@@ -69,7 +48,7 @@ public sealed class MonotoneBasis : IIndexBasis, IEquatable<MonotoneBasis>
         for (int j = 0; j < n; j++) { terms[d + 1 + j] = (1 - t) * iv[j]; terms[d + 1 + n + j] = t * iv[j]; }
     }
 
-    public void TermDerivatives(double colour, double feh, Span<double> dColour, Span<double> dFeh)
+    public override void TermDerivatives(double colour, double feh, Span<double> dColour, Span<double> dFeh)
     {
         int d = ColourDegree, n = Ramps.Count;
         Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
@@ -85,26 +64,12 @@ public sealed class MonotoneBasis : IIndexBasis, IEquatable<MonotoneBasis>
         }
     }
 
-    public double Value(ReadOnlySpan<double> coefficients, double colour, double feh) => Slice(coefficients, colour).At(feh).Value;
+    public override IndexSlice Slice(ReadOnlySpan<double> coefficients, double colour) => new MonotoneSlice(this, coefficients, colour);
 
-    public (double DColour, double DFeh) Gradient(ReadOnlySpan<double> coefficients, double colour, double feh)
-    {
-        var s = (MonotoneSlice)Slice(coefficients, colour);
-        return (s.At(feh).DColour, s.FehSlope(feh));
-    }
+    protected override IEnumerable<string> RampTermNames() =>
+        Enumerable.Range(1, Ramps.Count).Select(j => $"(1-t) I{j}").Concat(Enumerable.Range(1, Ramps.Count).Select(j => $"t I{j}"));
 
-    public IndexSlice Slice(ReadOnlySpan<double> coefficients, double colour) => new MonotoneSlice(this, coefficients, colour);
-
-    public string[] TermNames()
-    {
-        var names = new List<string>();
-        for (int a = 0; a <= ColourDegree; a++) names.Add(a == 0 ? "1" : a == 1 ? "u" : $"u^{a}");
-        for (int j = 1; j <= Ramps.Count; j++) names.Add($"(1-t) I{j}");
-        for (int j = 1; j <= Ramps.Count; j++) names.Add($"t I{j}");
-        return names.ToArray();
-    }
-
-    private sealed class MonotoneSlice : IndexSlice
+    private sealed class MonotoneSlice : RampSlice
     {
         private readonly MonotoneBasis _b;
         private readonly double _p, _dp, _d2p;
@@ -138,7 +103,7 @@ public sealed class MonotoneBasis : IIndexBasis, IEquatable<MonotoneBasis>
             return (f, g);
         }
 
-        public double FehSlope(double feh)
+        public override double FehSlope(double feh)
         {
             int n = _s.Length;
             Span<double> iv = stackalloc double[n], sl = stackalloc double[n];

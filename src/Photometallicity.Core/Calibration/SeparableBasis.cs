@@ -5,7 +5,7 @@ namespace Photometallicity.Calibration;
 /// <summary>
 /// A separable forward model, monotonic in [Fe/H] by construction:
 ///   f(C, F) = p(C) + a(t) sum_j w_j I_j(F),   w_j &gt;= 0,   a(t) = 1 + Gamma t,   t = (C - ColourLo) / (ColourHi - ColourLo),
-/// with p a polynomial of degree <see cref="ColourDegree"/> in u = 2t - 1 (tangent continuation outside the standards' colours)
+/// with p a polynomial of degree <see cref="RampBasis.ColourDegree"/> in u = 2t - 1 (tangent continuation outside the standards' colours)
 /// and I_j the quadratic I-splines of <see cref="MonotoneRamps"/> (Ramsay 1988, Statistical Science 3, 425). The shape of the
 /// index against [Fe/H] is the same at every colour and only its amplitude a changes with colour (linearly between the
 /// standards' bluest and reddest colours, 1 at the bluest). Because the standards' colours and [Fe/H] are correlated along the
@@ -15,45 +15,28 @@ namespace Photometallicity.Calibration;
 /// monotonic; a project choice). Gamma &gt; -1 is found by profile likelihood (<see cref="SeparableModelSpec"/>); for a fixed
 /// Gamma the model is linear in its coefficients. Term order: p_0 .. p_d, w_1 .. w_J.
 /// </summary>
-public sealed class SeparableBasis : IIndexBasis, IEquatable<SeparableBasis>
+public sealed class SeparableBasis : RampBasis, IEquatable<SeparableBasis>
 {
     public SeparableBasis(int colourDegree, double colourLo, double colourHi, MonotoneRamps ramps, double gamma)
+        : base(colourDegree, colourLo, colourHi, ramps, ramps.Count)
     {
-        if (colourDegree < 1 || colourDegree > 3) throw new ArgumentOutOfRangeException(nameof(colourDegree), colourDegree, "the colour degree must be 1, 2 or 3");
-        if (!(colourHi > colourLo)) throw new ArgumentException($"the colour range [{colourLo}, {colourHi}] is empty");
         if (!(gamma > -1)) throw new ArgumentOutOfRangeException(nameof(gamma), gamma, "the amplitude ratio 1 + gamma must be positive");
-        ColourDegree = colourDegree;
-        ColourLo = colourLo;
-        ColourHi = colourHi;
-        Ramps = ramps;
         Gamma = gamma;
-        Count = colourDegree + 1 + ramps.Count;
-        NonNegative = new bool[Count];
-        for (int k = colourDegree + 1; k < Count; k++) NonNegative[k] = true;
     }
 
-    public int ColourDegree { get; }
-    public double ColourLo { get; }
-    public double ColourHi { get; }
-    public MonotoneRamps Ramps { get; }
     public double Gamma { get; }
-    public int Count { get; }
-    public bool[]? NonNegative { get; }
-    public int Complexity => Count + 1;
+    public override int Complexity => Count + 1;
 
-    public string Describe => string.Create(CultureInfo.InvariantCulture,
-        $"separable, monotone in [Fe/H]: colour degree {ColourDegree}, {Ramps.Knots.Length} interior [Fe/H] knot{(Ramps.Knots.Length == 1 ? "" : "s")}, amplitude ratio red/blue {1 + Gamma:F3}, {Count + 1} parameters");
+    public override string Describe => string.Create(CultureInfo.InvariantCulture,
+        $"separable, monotone in [Fe/H]: colour degree {ColourDegree}, {KnotsText}, amplitude ratio red/blue {1 + Gamma:F3}, {Count + 1} parameters");
 
     public SeparableBasis WithGamma(double gamma) => new(ColourDegree, ColourLo, ColourHi, Ramps, gamma);
 
-    public bool Equals(SeparableBasis? o) => o is not null && ColourDegree == o.ColourDegree && ColourLo == o.ColourLo && ColourHi == o.ColourHi &&
-        Gamma == o.Gamma && Ramps.Lo == o.Ramps.Lo && Ramps.Hi == o.Ramps.Hi && Ramps.Knots.SequenceEqual(o.Ramps.Knots);
+    public bool Equals(SeparableBasis? o) => o is not null && Gamma == o.Gamma && SameShape(o);
 
     public override bool Equals(object? obj) => Equals(obj as SeparableBasis);
 
-    public override int GetHashCode() => HashCode.Combine(ColourDegree, ColourLo, ColourHi, Gamma, Ramps.Lo, Ramps.Hi, Ramps.Knots.Length);
-
-    private double Width => ColourHi - ColourLo;
+    public override int GetHashCode() => HashCode.Combine(ShapeHash(), Gamma);
 
     /// <summary>The amplitude a(t) and its t-derivative.</summary>
     private (double A, double DA) Amplitude(double t)
@@ -63,10 +46,7 @@ public sealed class SeparableBasis : IIndexBasis, IEquatable<SeparableBasis>
         return (1 + Gamma * t, Gamma);
     }
 
-    private void ColourTerms(double colour, Span<double> pw, Span<double> dpw, Span<double> d2pw, out double t) =>
-        ColourPowers.Evaluate(ColourDegree, ColourLo, ColourHi, colour, pw, dpw, d2pw, out t);
-
-    public void Terms(double colour, double feh, Span<double> terms)
+    public override void Terms(double colour, double feh, Span<double> terms)
     {
         int d = ColourDegree, n = Ramps.Count;
         Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
@@ -78,7 +58,7 @@ public sealed class SeparableBasis : IIndexBasis, IEquatable<SeparableBasis>
         for (int j = 0; j < n; j++) terms[d + 1 + j] = amp * iv[j];
     }
 
-    public void TermDerivatives(double colour, double feh, Span<double> dColour, Span<double> dFeh)
+    public override void TermDerivatives(double colour, double feh, Span<double> dColour, Span<double> dFeh)
     {
         int d = ColourDegree, n = Ramps.Count;
         Span<double> pw = stackalloc double[d + 1], dp = stackalloc double[d + 1], d2 = stackalloc double[d + 1];
@@ -91,25 +71,11 @@ public sealed class SeparableBasis : IIndexBasis, IEquatable<SeparableBasis>
         for (int j = 0; j < n; j++) { dColour[d + 1 + j] = damp * dtdc * iv[j]; dFeh[d + 1 + j] = amp * sl[j]; }
     }
 
-    public double Value(ReadOnlySpan<double> coefficients, double colour, double feh) => Slice(coefficients, colour).At(feh).Value;
+    public override IndexSlice Slice(ReadOnlySpan<double> coefficients, double colour) => new SeparableSlice(this, coefficients, colour);
 
-    public (double DColour, double DFeh) Gradient(ReadOnlySpan<double> coefficients, double colour, double feh)
-    {
-        var s = (SeparableSlice)Slice(coefficients, colour);
-        return (s.At(feh).DColour, s.FehSlope(feh));
-    }
+    protected override IEnumerable<string> RampTermNames() => Enumerable.Range(1, Ramps.Count).Select(j => $"a(t) I{j}");
 
-    public IndexSlice Slice(ReadOnlySpan<double> coefficients, double colour) => new SeparableSlice(this, coefficients, colour);
-
-    public string[] TermNames()
-    {
-        var names = new List<string>();
-        for (int a = 0; a <= ColourDegree; a++) names.Add(a == 0 ? "1" : a == 1 ? "u" : $"u^{a}");
-        for (int j = 1; j <= Ramps.Count; j++) names.Add($"a(t) I{j}");
-        return names.ToArray();
-    }
-
-    private sealed class SeparableSlice : IndexSlice
+    private sealed class SeparableSlice : RampSlice
     {
         private readonly SeparableBasis _b;
         private readonly double _p, _dp, _d2p, _amp, _damp, _d2amp;
@@ -149,7 +115,7 @@ public sealed class SeparableBasis : IIndexBasis, IEquatable<SeparableBasis>
             return (_p + _amp * g, _dp + _damp * g);
         }
 
-        public double FehSlope(double feh)
+        public override double FehSlope(double feh)
         {
             Shape(feh, out double s);
             return _amp * s;
